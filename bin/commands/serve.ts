@@ -1,0 +1,64 @@
+import { spawnSync } from 'node:child_process';
+import { join } from 'node:path';
+import type { Command } from 'commander';
+import { closeDb, createDb } from '#server/db/client.ts';
+import { clusterStatus, stopCluster } from '#server/db/cluster.ts';
+import { migrateDb } from '#server/db/migrate.ts';
+import { demoUsers, seedDemoUsers } from '#server/demo/users.ts';
+import { startServer } from '#server/index.ts';
+import { projectRoot, resolveDatabase, serverEnv } from '../config.ts';
+import { stdio } from '../output.ts';
+import { action, CliError } from '../run.ts';
+import { seedDemoPlantIfEmpty } from './seed.ts';
+
+function buildClient() {
+  stdio.err('Building the client (vite build)…');
+  const r = spawnSync(join(projectRoot, 'node_modules', '.bin', 'vite'), ['build', '--logLevel', 'warn'], {
+    cwd: projectRoot,
+    stdio: 'inherit',
+  });
+  if (r.status !== 0) throw new CliError('vite build failed');
+}
+
+export function registerServe(program: Command) {
+  program
+    .command('serve')
+    .description('serve the API and the dashboard from one process on 127.0.0.1')
+    .option('--port <port>', 'port (default $PORT or 3000)')
+    .option('--host <host>', 'interface (default $HOST or 127.0.0.1)')
+    .option('--first-run', 'build the client and, on an empty database, add the demo users and the demo plant (npm start)')
+    .action(
+      action(async (opts: { port?: string; host?: string; firstRun?: boolean }) => {
+        const wasRunning = await clusterStatus(join(projectRoot, '.osmia', 'pg')).then((s) => s.running);
+        const target = await resolveDatabase((l) => stdio.err(l));
+        const env = serverEnv(target.url, { ...(opts.port ? { PORT: opts.port } : {}), ...(opts.host ? { HOST: opts.host } : {}) });
+        const db = createDb(target.url, { max: 2 });
+        let seededUsers = 0;
+        try {
+          await migrateDb(db);
+          if (opts.firstRun) {
+            buildClient();
+            seededUsers = await seedDemoUsers(db, env.BCRYPT_COST);
+            await seedDemoPlantIfEmpty(db, (l) => stdio.err(l));
+          }
+        } finally {
+          await closeDb(db);
+        }
+        const server = await startServer(env);
+        stdio.out(`\nOsmia is running at ${server.url}  (database: ${target.source === 'env' ? 'DATABASE_URL' : 'private cluster'})`);
+        if (opts.firstRun || seededUsers > 0) {
+          stdio.out('Demo sign-ins (e-mail / password):');
+          for (const u of demoUsers) stdio.out(`  ${u.role.padEnd(9)} ${u.email.padEnd(26)} ${u.password}`);
+        }
+        stdio.out('Press Ctrl-C to stop (the data is kept).');
+        await new Promise<void>((resolve) => {
+          const stop = () => resolve();
+          process.once('SIGINT', stop);
+          process.once('SIGTERM', stop);
+        });
+        stdio.err('\nStopping…');
+        await server.close();
+        if (target.source === 'private' && !wasRunning && target.clusterDir) await stopCluster(target.clusterDir);
+      }),
+    );
+}

@@ -1,0 +1,20 @@
+import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres';
+import pg from 'pg';
+import * as schema from './schema.ts';
+
+// timestamptz comes back as Date (pg's default); bigint counts (type 20) as numbers: our counts fit.
+pg.types.setTypeParser(20, (v) => Number(v));
+
+export type Db = NodePgDatabase<typeof schema> & { $client: pg.Pool };
+
+export function createDb(url: string, options: { max?: number } = {}): Db {
+  // Sessions run in UTC so date_trunc('hour', …) of rollups means the same hour everywhere.
+  const pool = new pg.Pool({ connectionString: url, max: options.max ?? 10, application_name: 'osmia', options: '-c TimeZone=UTC' });
+  // An idle client that loses its connection must not crash the process.
+  pool.on('error', () => {});
+  return drizzle(pool, { schema }) as Db;
+}
+
+export async function closeDb(db: Db): Promise<void> {
+  await db.$client.end();
+}

@@ -1,0 +1,36 @@
+import type { Queryable } from './queryable.ts';
+
+export interface ElementValues {
+  serial: string;
+  model: string;
+  vesselId: number;
+  position: number;
+  installedAt: Date;
+  removedAt: Date | null;
+  removalReason: string | null;
+}
+
+export async function listElementValues(q: Queryable, siteId: number): Promise<(ElementValues & { id: number })[]> {
+  const { rows } = await q.query<ElementValues & { id: number }>(
+    `select id, serial, model, vessel_id as "vesselId", position, installed_at as "installedAt",
+            removed_at as "removedAt", removal_reason as "removalReason"
+     from elements where site_id = $1`,
+    [siteId],
+  );
+  return rows;
+}
+
+export async function upsertElements(q: Queryable, siteId: number, importId: number | null, rows: ElementValues[]): Promise<void> {
+  for (let i = 0; i < rows.length; i += 5000) {
+    const chunk = rows.slice(i, i + 5000);
+    const col = <K extends keyof ElementValues>(k: K) => chunk.map((r) => r[k]);
+    await q.query(
+      `insert into elements (site_id, import_id, serial, model, vessel_id, position, installed_at, removed_at, removal_reason)
+       select $1, $2, * from unnest($3::text[], $4::text[], $5::int[], $6::int[], $7::timestamptz[], $8::timestamptz[], $9::text[])
+       on conflict (site_id, serial, installed_at) do update set import_id = excluded.import_id, model = excluded.model,
+         vessel_id = excluded.vessel_id, position = excluded.position, removed_at = excluded.removed_at,
+         removal_reason = excluded.removal_reason`,
+      [siteId, importId, col('serial'), col('model'), col('vesselId'), col('position'), col('installedAt'), col('removedAt'), col('removalReason')],
+    );
+  }
+}

@@ -1,0 +1,72 @@
+import type { Queryable } from './queryable.ts';
+
+export interface WorkOrderValues {
+  woNumber: string;
+  assetId: number;
+  type: string;
+  priority: string;
+  status: string;
+  failureCode: string | null;
+  description: string;
+  reportedAt: Date;
+  startedAt: Date | null;
+  completedAt: Date | null;
+  outOfServiceFrom: Date | null;
+  outOfServiceTo: Date | null;
+  labourHours: number;
+  labourCost: number;
+  partsCost: number;
+  crew: string | null;
+}
+
+export async function listWorkOrderValues(q: Queryable, siteId: number): Promise<(WorkOrderValues & { id: number })[]> {
+  const { rows } = await q.query<WorkOrderValues & { id: number }>(
+    `select id, wo_number as "woNumber", asset_id as "assetId", type, priority, status, failure_code as "failureCode",
+            description, reported_at as "reportedAt", started_at as "startedAt", completed_at as "completedAt",
+            out_of_service_from as "outOfServiceFrom", out_of_service_to as "outOfServiceTo",
+            labour_hours as "labourHours", labour_cost as "labourCost", parts_cost as "partsCost", crew
+     from work_orders where site_id = $1`,
+    [siteId],
+  );
+  return rows;
+}
+
+export async function upsertWorkOrders(q: Queryable, siteId: number, importId: number | null, rows: WorkOrderValues[]): Promise<void> {
+  for (let i = 0; i < rows.length; i += 5000) {
+    const chunk = rows.slice(i, i + 5000);
+    const col = <K extends keyof WorkOrderValues>(k: K) => chunk.map((r) => r[k]);
+    await q.query(
+      `insert into work_orders (site_id, import_id, wo_number, asset_id, type, priority, status, failure_code, description,
+         reported_at, started_at, completed_at, out_of_service_from, out_of_service_to, labour_hours, labour_cost, parts_cost, crew)
+       select $1, $2, * from unnest($3::text[], $4::int[], $5::text[], $6::text[], $7::text[], $8::text[], $9::text[],
+         $10::timestamptz[], $11::timestamptz[], $12::timestamptz[], $13::timestamptz[], $14::timestamptz[],
+         $15::float8[], $16::float8[], $17::float8[], $18::text[])
+       on conflict (site_id, wo_number) do update set import_id = excluded.import_id, asset_id = excluded.asset_id,
+         type = excluded.type, priority = excluded.priority, status = excluded.status, failure_code = excluded.failure_code,
+         description = excluded.description, reported_at = excluded.reported_at, started_at = excluded.started_at,
+         completed_at = excluded.completed_at, out_of_service_from = excluded.out_of_service_from,
+         out_of_service_to = excluded.out_of_service_to, labour_hours = excluded.labour_hours,
+         labour_cost = excluded.labour_cost, parts_cost = excluded.parts_cost, crew = excluded.crew`,
+      [
+        siteId,
+        importId,
+        col('woNumber'),
+        col('assetId'),
+        col('type'),
+        col('priority'),
+        col('status'),
+        col('failureCode'),
+        col('description'),
+        col('reportedAt'),
+        col('startedAt'),
+        col('completedAt'),
+        col('outOfServiceFrom'),
+        col('outOfServiceTo'),
+        col('labourHours'),
+        col('labourCost'),
+        col('partsCost'),
+        col('crew'),
+      ],
+    );
+  }
+}

@@ -1,0 +1,348 @@
+import { sql } from 'drizzle-orm';
+import {
+  bigserial,
+  boolean,
+  check,
+  doublePrecision,
+  index,
+  integer,
+  jsonb,
+  pgTable,
+  serial,
+  smallint,
+  text,
+  timestamp,
+  uniqueIndex,
+  type AnyPgColumn,
+} from 'drizzle-orm/pg-core';
+import {
+  assetKinds,
+  quantities,
+  removalReasons,
+  roles,
+  workOrderPriorities,
+  workOrderStatuses,
+  workOrderTypes,
+  importKinds,
+  importStatuses,
+} from '#shared/schemas/enums.ts';
+
+// Every instant is a timestamptz: durations are real elapsed time whatever the site's time zone.
+const instant = (name: string) => timestamp(name, { withTimezone: true, mode: 'date' });
+const created = () => instant('created_at').notNull().defaultNow();
+
+/** SQL `col IN ('a','b')` for an enumeration kept as text (cheaper to extend than a pg enum). */
+const oneOf = (column: string, values: readonly string[]) =>
+  sql.raw(`${column} in (${values.map((v) => `'${v}'`).join(', ')})`);
+
+export const users = pgTable(
+  'users',
+  {
+    id: serial('id').primaryKey(),
+    email: text('email').notNull(),
+    name: text('name').notNull().default(''),
+    passwordHash: text('password_hash').notNull(),
+    role: text('role').notNull(),
+    disabled: boolean('disabled').notNull().default(false),
+    createdAt: created(),
+    lastLoginAt: instant('last_login_at'),
+  },
+  (t) => [
+    uniqueIndex('users_email_key').on(sql`lower(${t.email})`),
+    check('users_role_check', oneOf('role', roles)),
+  ],
+);
+
+export const sites = pgTable('sites', {
+  id: serial('id').primaryKey(),
+  code: text('code').notNull().unique('sites_code_key'),
+  name: text('name').notNull(),
+  timeZone: text('time_zone').notNull().default('UTC'),
+  createdAt: created(),
+});
+
+export const assets = pgTable(
+  'assets',
+  {
+    id: serial('id').primaryKey(),
+    siteId: integer('site_id')
+      .notNull()
+      .references(() => sites.id, { onDelete: 'cascade' }),
+    code: text('code').notNull(),
+    name: text('name').notNull(),
+    kind: text('kind').notNull(),
+    parentId: integer('parent_id').references((): AnyPgColumn => assets.id, { onDelete: 'set null' }),
+    ratedPermeateM3h: doublePrecision('rated_permeate_m3h'),
+    elementCapacity: integer('element_capacity'),
+    rackRow: integer('rack_row'),
+    rackCol: integer('rack_col'),
+  },
+  (t) => [
+    uniqueIndex('assets_site_code_key').on(t.siteId, t.code),
+    index('assets_parent_idx').on(t.parentId),
+    check('assets_kind_check', oneOf('kind', assetKinds)),
+    check('assets_capacity_check', sql`element_capacity is null or element_capacity between 1 and 16`),
+    check('assets_vessel_capacity_check', sql`kind <> 'vessel' or element_capacity is not null`),
+    check('assets_rated_check', sql`rated_permeate_m3h is null or rated_permeate_m3h >= 0`),
+  ],
+);
+
+export const imports = pgTable(
+  'imports',
+  {
+    id: serial('id').primaryKey(),
+    siteId: integer('site_id').references(() => sites.id, { onDelete: 'cascade' }),
+    kind: text('kind').notNull(),
+    fileName: text('file_name').notNull(),
+    sha256: text('sha256').notNull(),
+    actor: text('actor').notNull(),
+    status: text('status').notNull(),
+    rowsRead: integer('rows_read').notNull().default(0),
+    rowsInserted: integer('rows_inserted').notNull().default(0),
+    rowsUnchanged: integer('rows_unchanged').notNull().default(0),
+    rowsRejected: integer('rows_rejected').notNull().default(0),
+    durationMs: integer('duration_ms').notNull().default(0),
+    options: jsonb('options').notNull().default({}),
+    notes: jsonb('notes').notNull().default({}),
+    error: text('error'),
+    startedAt: instant('started_at').notNull().defaultNow(),
+    finishedAt: instant('finished_at'),
+  },
+  (t) => [
+    check('imports_kind_check', oneOf('kind', importKinds)),
+    check('imports_status_check', oneOf('status', importStatuses)),
+    index('imports_started_idx').on(t.startedAt),
+    // One landed import per file content, kind and site: the second run of a file is a "duplicate".
+    uniqueIndex('imports_landed_key')
+      .on(t.siteId, t.kind, t.sha256)
+      .where(sql`status in ('completed', 'partial')`),
+  ],
+);
+
+export const importRejects = pgTable(
+  'import_rejects',
+  {
+    id: bigserial('id', { mode: 'number' }).primaryKey(),
+    importId: integer('import_id')
+      .notNull()
+      .references(() => imports.id, { onDelete: 'cascade' }),
+    line: integer('line').notNull(),
+    reason: text('reason').notNull(),
+    raw: text('raw'),
+  },
+  (t) => [index('import_rejects_import_idx').on(t.importId, t.line)],
+);
+
+export const workOrders = pgTable(
+  'work_orders',
+  {
+    id: serial('id').primaryKey(),
+    siteId: integer('site_id')
+      .notNull()
+      .references(() => sites.id, { onDelete: 'cascade' }),
+    woNumber: text('wo_number').notNull(),
+    assetId: integer('asset_id')
+      .notNull()
+      .references(() => assets.id, { onDelete: 'restrict' }),
+    type: text('type').notNull(),
+    priority: text('priority').notNull(),
+    status: text('status').notNull(),
+    failureCode: text('failure_code'),
+    description: text('description').notNull().default(''),
+    reportedAt: instant('reported_at').notNull(),
+    startedAt: instant('started_at'),
+    completedAt: instant('completed_at'),
+    outOfServiceFrom: instant('out_of_service_from'),
+    outOfServiceTo: instant('out_of_service_to'),
+    labourHours: doublePrecision('labour_hours').notNull().default(0),
+    labourCost: doublePrecision('labour_cost').notNull().default(0),
+    partsCost: doublePrecision('parts_cost').notNull().default(0),
+    crew: text('crew'),
+    importId: integer('import_id').references(() => imports.id, { onDelete: 'set null' }),
+  },
+  (t) => [
+    uniqueIndex('work_orders_site_number_key').on(t.siteId, t.woNumber),
+    index('work_orders_asset_reported_idx').on(t.assetId, t.reportedAt),
+    check('work_orders_type_check', oneOf('type', workOrderTypes)),
+    check('work_orders_priority_check', oneOf('priority', workOrderPriorities)),
+    check('work_orders_status_check', oneOf('status', workOrderStatuses)),
+    check('work_orders_started_check', sql`started_at is null or started_at >= reported_at`),
+    check('work_orders_completed_check', sql`completed_at is null or (started_at is not null and completed_at >= started_at)`),
+    check(
+      'work_orders_oos_check',
+      sql`(out_of_service_from is null) = (out_of_service_to is null) and (out_of_service_to is null or out_of_service_to >= out_of_service_from)`,
+    ),
+    check('work_orders_money_check', sql`labour_hours >= 0 and labour_cost >= 0 and parts_cost >= 0`),
+  ],
+);
+
+export const jobSteps = pgTable(
+  'job_steps',
+  {
+    id: serial('id').primaryKey(),
+    workOrderId: integer('work_order_id')
+      .notNull()
+      .references(() => workOrders.id, { onDelete: 'cascade' }),
+    step: integer('step').notNull(),
+    name: text('name').notNull(),
+    startedAt: instant('started_at').notNull(),
+    completedAt: instant('completed_at').notNull(),
+    guided: boolean('guided').notNull(),
+    technician: text('technician'),
+    importId: integer('import_id').references(() => imports.id, { onDelete: 'set null' }),
+  },
+  (t) => [
+    uniqueIndex('job_steps_wo_step_key').on(t.workOrderId, t.step),
+    check('job_steps_step_check', sql`step >= 1`),
+    check('job_steps_duration_check', sql`completed_at > started_at`),
+  ],
+);
+
+export const elements = pgTable(
+  'elements',
+  {
+    id: serial('id').primaryKey(),
+    siteId: integer('site_id')
+      .notNull()
+      .references(() => sites.id, { onDelete: 'cascade' }),
+    serial: text('serial').notNull(),
+    model: text('model').notNull(),
+    vesselId: integer('vessel_id')
+      .notNull()
+      .references(() => assets.id, { onDelete: 'restrict' }),
+    position: integer('position').notNull(),
+    installedAt: instant('installed_at').notNull(),
+    removedAt: instant('removed_at'),
+    removalReason: text('removal_reason'),
+    importId: integer('import_id').references(() => imports.id, { onDelete: 'set null' }),
+  },
+  (t) => [
+    uniqueIndex('elements_site_serial_installed_key').on(t.siteId, t.serial, t.installedAt),
+    index('elements_vessel_position_idx').on(t.vesselId, t.position, t.installedAt),
+    check('elements_position_check', sql`position >= 1`),
+    check('elements_removed_check', sql`removed_at is null or removed_at > installed_at`),
+    check('elements_reason_check', sql`removal_reason is null or ${oneOf('removal_reason', removalReasons)}`),
+  ],
+);
+
+export const tags = pgTable(
+  'tags',
+  {
+    id: serial('id').primaryKey(),
+    siteId: integer('site_id')
+      .notNull()
+      .references(() => sites.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+    assetId: integer('asset_id')
+      .notNull()
+      .references(() => assets.id, { onDelete: 'restrict' }),
+    quantity: text('quantity').notNull(),
+    /** The unit of the export; samples are stored converted to the quantity's canonical unit. */
+    sourceUnit: text('source_unit').notNull().default(''),
+  },
+  (t) => [
+    uniqueIndex('tags_site_name_key').on(t.siteId, t.name),
+    index('tags_asset_idx').on(t.assetId, t.quantity),
+    check('tags_quantity_check', oneOf('quantity', quantities)),
+  ],
+);
+
+/**
+ * The big table: tens of millions of rows. Append-only and ordered by time as historian exports are,
+ * so a BRIN index on ts is a few pages and keeps COPY at the speed of an unindexed load (a btree on
+ * (tag_id, ts) made COPY about 2.7 × slower here). The natural key (tag, ts) is enforced by the
+ * importer with sample_coverage, not by a unique index: see docs/decisions/001-samples-storage.md.
+ * quality is the OPC DA quality byte (192 good, 64 uncertain, 0 bad).
+ */
+export const samples = pgTable(
+  'samples',
+  {
+    tagId: integer('tag_id').notNull(),
+    ts: instant('ts').notNull(),
+    value: doublePrecision('value').notNull(),
+    quality: smallint('quality').notNull(),
+  },
+  (t) => [index('samples_ts_brin').using('brin', t.ts).with({ pages_per_range: 16 })],
+);
+
+/** Per import and tag, the span and count of samples it brought: how overlaps are found cheaply. */
+export const sampleCoverage = pgTable(
+  'sample_coverage',
+  {
+    importId: integer('import_id')
+      .notNull()
+      .references(() => imports.id, { onDelete: 'cascade' }),
+    tagId: integer('tag_id')
+      .notNull()
+      .references(() => tags.id, { onDelete: 'cascade' }),
+    fromTs: instant('from_ts').notNull(),
+    toTs: instant('to_ts').notNull(),
+    rows: integer('rows').notNull(),
+  },
+  (t) => [index('sample_coverage_tag_idx').on(t.tagId, t.fromTs, t.toTs)],
+);
+
+/** Hourly rollups of good samples, rebuilt by `osmia refresh` for the hours an import touched. */
+export const sampleHourly = pgTable(
+  'sample_hourly',
+  {
+    tagId: integer('tag_id').notNull(),
+    hour: instant('hour').notNull(),
+    n: integer('n').notNull(),
+    mean: doublePrecision('mean').notNull(),
+    min: doublePrecision('min').notNull(),
+    max: doublePrecision('max').notNull(),
+    last: doublePrecision('last').notNull(),
+    lastTs: instant('last_ts').notNull(),
+  },
+  (t) => [uniqueIndex('sample_hourly_key').on(t.tagId, t.hour)],
+);
+
+/** Hours whose rollups must be rebuilt: written by imports, drained by refresh. */
+export const dirtyHours = pgTable(
+  'dirty_hours',
+  {
+    tagId: integer('tag_id').notNull(),
+    fromHour: instant('from_hour').notNull(),
+    toHour: instant('to_hour').notNull(),
+  },
+  (t) => [index('dirty_hours_tag_idx').on(t.tagId)],
+);
+
+/** Stop events derived from run-status edges by `osmia refresh`. */
+export const downtimeEvents = pgTable(
+  'downtime_events',
+  {
+    id: serial('id').primaryKey(),
+    assetId: integer('asset_id')
+      .notNull()
+      .references(() => assets.id, { onDelete: 'cascade' }),
+    tagId: integer('tag_id')
+      .notNull()
+      .references(() => tags.id, { onDelete: 'cascade' }),
+    fromTs: instant('from_ts').notNull(),
+    toTs: instant('to_ts'),
+  },
+  (t) => [uniqueIndex('downtime_events_asset_from_key').on(t.assetId, t.fromTs), index('downtime_events_from_idx').on(t.fromTs)],
+);
+
+export const settings = pgTable('settings', {
+  key: text('key').primaryKey(),
+  value: jsonb('value').notNull(),
+  updatedAt: instant('updated_at').notNull().defaultNow(),
+  updatedBy: text('updated_by'),
+});
+
+export const mailLog = pgTable(
+  'mail_log',
+  {
+    id: serial('id').primaryKey(),
+    recipients: text('recipients').notNull(),
+    subject: text('subject').notNull(),
+    body: text('body').notNull(),
+    status: text('status').notNull(),
+    error: text('error'),
+    sentAt: instant('sent_at').notNull().defaultNow(),
+  },
+  () => [check('mail_log_status_check', sql`status in ('sent', 'failed')`)],
+);

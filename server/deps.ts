@@ -1,0 +1,9 @@
+import type { Db } from './db/client.ts';
+import type { Env } from './env.ts';
+
+/** What every router and service of one app instance shares. */
+export interface AppDeps {
+  db: Db;
+  env: Env;
+  sessionKey: Uint8Array;
+}

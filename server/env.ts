@@ -1,0 +1,36 @@
+import { z } from 'zod';
+
+const flag = z
+  .enum(['true', 'false', '1', '0', 'yes', 'no', ''])
+  .default('false')
+  .transform((v) => v === 'true' || v === '1' || v === 'yes');
+
+/** Everything the server reads from its environment, validated once at start. */
+export const envSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  DATABASE_URL: z.string().regex(/^postgres(ql)?:\/\//, 'must be a postgres:// URL'),
+  HOST: z.string().min(1).default('127.0.0.1'),
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  JWT_SECRET: z.string().min(32, 'must be at least 32 characters'),
+  SESSION_HOURS: z.coerce.number().positive().max(24 * 30).default(12),
+  COOKIE_SECURE: flag,
+  LOGIN_RATE_LIMIT: z.coerce.number().int().positive().default(10),
+  LOGIN_RATE_WINDOW_MINUTES: z.coerce.number().positive().default(15),
+  UPLOAD_LIMIT_MB: z.coerce.number().positive().default(1024),
+  BCRYPT_COST: z.coerce.number().int().min(4).max(15).default(11),
+  SMTP_URL: z.string().optional(),
+  MAIL_FROM: z.string().default('Osmia <osmia@localhost>'),
+  CLIENT_DIST: z.string().optional(),
+  LOG_REQUESTS: flag,
+});
+export type Env = z.infer<typeof envSchema>;
+
+export class EnvError extends Error {}
+
+/** Parse the environment; on failure, one error that lists every missing or bad variable. */
+export function loadEnv(source: Record<string, string | undefined> = process.env): Env {
+  const parsed = envSchema.safeParse(source);
+  if (parsed.success) return parsed.data;
+  const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
+  throw new EnvError(`Invalid environment (see .env.example):\n${lines.join('\n')}`);
+}

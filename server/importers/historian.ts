@@ -1,0 +1,247 @@
+// Historian exports (long `timestamp,tag,value[,quality]` or wide `timestamp,<tag>,<tag>…`) into
+// samples, streamed with COPY in constant memory. Rows are checked by hand here rather than with a
+// zod row schema: this loop runs tens of millions of times and a schema per row would triple its cost.
+import type { Writable } from 'node:stream';
+import { from as copyFrom } from 'pg-copy-streams';
+import { unitFor } from '#shared/units.ts';
+import { listTags } from '../db/queries/tags.ts';
+import {
+  currentXid,
+  deleteRepeatedSamples,
+  insertCoverage,
+  markDirtyHours,
+  tagsWithOverlap,
+  type TagSpan,
+} from '../db/queries/samples.ts';
+import type { KindContext, KindResult } from './context.ts';
+import { ImportFileError } from './errors.ts';
+import { maxFieldLength } from './source.ts';
+import { readBoolean, readQuality } from './values.ts';
+
+interface TagInfo {
+  id: number;
+  name: string;
+  isStatus: boolean;
+  convert: (v: number) => number;
+}
+
+interface Span {
+  from: number;
+  to: number;
+  rows: number;
+  last: number;
+  ordered: boolean;
+}
+
+const numberPattern = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+const offsetPattern = /(Z|[+-]\d{2}(:?\d{2})?)$/i;
+
+/** Writes COPY text in chunks of about 256 kB, waiting when PostgreSQL is behind. */
+class CopyWriter {
+  private parts: string[] = [];
+  private size = 0;
+  constructor(private readonly stream: Writable) {}
+  push(line: string) {
+    this.parts.push(line);
+    this.size += line.length;
+  }
+  async flushIfFull(): Promise<void> {
+    if (this.size >= 256 * 1024) await this.flush();
+  }
+  async flush(): Promise<void> {
+    if (this.size === 0) return;
+    const chunk = this.parts.join('');
+    this.parts = [];
+    this.size = 0;
+    if (!this.stream.write(chunk)) await new Promise<void>((resolve, reject) => {
+      const onDrain = () => (this.stream.off('error', onError), resolve());
+      const onError = (err: Error) => (this.stream.off('drain', onDrain), reject(err));
+      this.stream.once('drain', onDrain);
+      this.stream.once('error', onError);
+    });
+  }
+  end(): Promise<void> {
+    return new Promise((resolve, reject) => {
+      this.stream.once('finish', resolve);
+      this.stream.once('error', reject);
+      this.stream.end();
+    });
+  }
+}
+
+export async function importHistorian(ctx: KindContext): Promise<KindResult> {
+  const { client, site, columns, source, rejects, time, decimalComma } = ctx;
+  // One historian import per site at a time, so overlap checks see every earlier sample.
+  await client.query('select pg_advisory_xact_lock(3, $1)', [site.id]);
+
+  const tags = new Map<string, TagInfo>();
+  for (const t of await listTags(client, site.id)) {
+    const unit = unitFor(t.quantity, t.sourceUnit);
+    if (!unit.ok) throw new ImportFileError(`Tag ${t.name} has an unusable unit: ${unit.reason}`);
+    tags.set(t.name.toLowerCase(), { id: t.id, name: t.name, isStatus: t.quantity === 'run_status', convert: unit.convert });
+  }
+  if (tags.size === 0) throw new ImportFileError(`Site ${site.code} has no tags: import the tag map first (osmia import tags …).`);
+
+  const long = columns.includes('tag') && columns.includes('value');
+  const iTime = 0;
+  const iTag = columns.indexOf('tag');
+  const iValue = columns.indexOf('value');
+  const iQuality = columns.indexOf('quality');
+  let wideTags: (TagInfo | undefined)[] = [];
+  if (!long) {
+    wideTags = source.header.map((h, i) => (i === 0 ? undefined : tags.get(h.trim().toLowerCase())));
+    const unknown = source.header.slice(1).filter((_, i) => !wideTags[i + 1]);
+    if (unknown.length > 0) {
+      throw new ImportFileError(
+        `Unknown tag column${unknown.length > 1 ? 's' : ''}: ${unknown.slice(0, 20).join(', ')}${unknown.length > 20 ? ' …' : ''}. ` +
+          'Import them in the tag map first, or rename the columns with --map.',
+      );
+    }
+  }
+  ctx.notes.layout = long ? 'long' : 'wide';
+
+  const copy = client.query(copyFrom('copy samples (tag_id, ts, value, quality) from stdin'));
+  const writer = new CopyWriter(copy);
+  const spans = new Map<number, Span>();
+  let rowsRead = 0;
+  let samples = 0;
+  let lastTimeText = '';
+  let lastTimeMs = 0;
+  let lastTimeOut = '';
+  let lastInstant: number | undefined;
+  let lastQualityText = 'good';
+  let lastQuality = 192;
+  let badQualities = 0;
+
+  const readTime = (text: string): string | undefined => {
+    if (text === lastTimeText) return lastTimeOut;
+    const parsed = time.read(text, lastInstant);
+    if (!parsed.ok) return undefined;
+    lastTimeText = text;
+    lastTimeMs = parsed.value;
+    lastInstant = parsed.value;
+    // An instant written with its offset goes to PostgreSQL as written; a local time as UTC.
+    lastTimeOut = offsetPattern.test(text.trim()) ? text.trim() : new Date(parsed.value).toISOString();
+    return lastTimeOut;
+  };
+
+  const readValue = (tag: TagInfo, text: string): number | string => {
+    if (tag.isStatus) {
+      const b = readBoolean(text);
+      return b.ok ? (b.value ? 1 : 0) : `run status ${b.reason}`;
+    }
+    let s = text.trim();
+    if (decimalComma) s = s.replace(',', '.');
+    if (!numberPattern.test(s)) return s === '' ? 'empty value' : `value "${text}" is not a number`;
+    return tag.convert(Number(s));
+  };
+
+  const record = (tag: TagInfo, ts: string, value: number, quality: number) => {
+    writer.push(`${tag.id}\t${ts}\t${value}\t${quality}\n`);
+    samples++;
+    let span = spans.get(tag.id);
+    if (!span) spans.set(tag.id, (span = { from: lastTimeMs, to: lastTimeMs, rows: 0, last: -Infinity, ordered: true }));
+    if (lastTimeMs <= span.last) span.ordered = false;
+    span.last = lastTimeMs;
+    if (lastTimeMs < span.from) span.from = lastTimeMs;
+    if (lastTimeMs > span.to) span.to = lastTimeMs;
+    span.rows++;
+  };
+
+  try {
+    for await (const batch of source.batches) {
+      for (const { line, cells } of batch) {
+        rowsRead++;
+        if (cells.some((c) => c.length > maxFieldLength)) {
+          rejects.add(line, `a field is longer than ${maxFieldLength} characters (unterminated quote?)`);
+          continue;
+        }
+        const ts = readTime(cells[iTime] ?? '');
+        if (ts === undefined) {
+          rejects.add(line, time.read(cells[iTime] ?? '').ok ? 'bad timestamp' : (time.read(cells[iTime] ?? '') as { reason: string }).reason, cells);
+          continue;
+        }
+        if (long) {
+          if (cells.length < 3 || (iQuality >= 0 && cells.length < columns.length)) {
+            rejects.add(line, `expected ${columns.length} columns, found ${cells.length}`, cells);
+            continue;
+          }
+          if (cells.length > columns.length) {
+            rejects.add(line, `expected ${columns.length} columns, found ${cells.length} (a delimiter inside an unquoted value?)`, cells);
+            continue;
+          }
+          const tag = tags.get((cells[iTag] ?? '').trim().toLowerCase());
+          if (!tag) {
+            rejects.add(line, `unknown tag "${cells[iTag]}" (not in the tag map of site ${site.code})`, cells);
+            continue;
+          }
+          const value = readValue(tag, cells[iValue] ?? '');
+          if (typeof value === 'string') {
+            rejects.add(line, value, cells);
+            continue;
+          }
+          let quality = lastQuality;
+          if (iQuality >= 0 && cells[iQuality] !== lastQualityText) {
+            const q = readQuality(cells[iQuality]);
+            if (!q.ok) {
+              rejects.add(line, q.reason, cells);
+              continue;
+            }
+            lastQualityText = cells[iQuality];
+            lastQuality = quality = q.value;
+          }
+          if ((quality & 0xc0) !== 0xc0) badQualities++;
+          record(tag, ts, value, quality);
+        } else {
+          if (cells.length !== columns.length) {
+            rejects.add(line, `expected ${columns.length} columns, found ${cells.length}`, cells);
+            continue;
+          }
+          const problems: string[] = [];
+          const good: [TagInfo, number][] = [];
+          for (let i = 1; i < cells.length; i++) {
+            if (cells[i].trim() === '') continue; // no sample of this tag at this time
+            const tag = wideTags[i]!;
+            const value = readValue(tag, cells[i]);
+            if (typeof value === 'string') problems.push(`${tag.name}: ${value}`);
+            else good.push([tag, value]);
+          }
+          if (problems.length > 0) {
+            rejects.add(line, problems.join('; '), cells);
+            continue;
+          }
+          for (const [tag, value] of good) record(tag, ts, value, 192);
+        }
+      }
+      ctx.progress(rowsRead);
+      await writer.flushIfFull();
+    }
+    await writer.flush();
+    await writer.end();
+  } catch (err) {
+    copy.destroy(err as Error);
+    throw err;
+  }
+
+  const tagSpans: TagSpan[] = [...spans].map(([tagId, s]) => ({ tagId, from: new Date(s.from), to: new Date(s.to), rows: s.rows }));
+  // Duplicates are possible only where a tag's span overlaps an earlier import or the file repeats itself.
+  const overlapping = new Set(await tagsWithOverlap(client, tagSpans));
+  const suspects = tagSpans.filter((s) => overlapping.has(s.tagId) || !spans.get(s.tagId)!.ordered);
+  const removed = await deleteRepeatedSamples(client, await currentXid(client), suspects);
+  let unchanged = 0;
+  for (const span of tagSpans) {
+    const n = removed.get(span.tagId) ?? 0;
+    span.rows -= n;
+    unchanged += n;
+  }
+  if (ctx.importId !== null) await insertCoverage(client, ctx.importId, tagSpans);
+  await markDirtyHours(client, tagSpans);
+  ctx.notes.samplesRead = samples;
+  ctx.notes.tags = tagSpans.length;
+  if (badQualities) ctx.notes.samplesNotGoodQuality = badQualities;
+  if (tagSpans.length) {
+    ctx.notes.from = new Date(Math.min(...tagSpans.map((s) => s.from.getTime()))).toISOString();
+    ctx.notes.to = new Date(Math.max(...tagSpans.map((s) => s.to.getTime()))).toISOString();
+  }
+  return { rowsRead, rowsInserted: samples - unchanged, rowsUpdated: 0, rowsUnchanged: unchanged };
+}

@@ -1,0 +1,47 @@
+import type { Role } from '#shared/schemas/enums.ts';
+import type { User, UserCreateBody, UserUpdateBody } from '#shared/schemas/users.ts';
+import { decoyHash, hashPassword, verifyPassword } from '../auth/passwords.ts';
+import type { Db } from '../db/client.ts';
+import {
+  countOtherActiveAdmins,
+  findUserById,
+  findUserWithHash,
+  insertUser,
+  touchLastLogin,
+  updateUser,
+} from '../db/queries/users.ts';
+import { HttpError, conflict, notFound } from '../errors.ts';
+
+export async function createUser(db: Db, body: UserCreateBody, cost: number): Promise<User> {
+  const passwordHash = await hashPassword(body.password, cost);
+  const user = await insertUser(db, { email: body.email, name: body.name, role: body.role, passwordHash });
+  if (!user) throw conflict('email-taken');
+  return user;
+}
+
+export async function changeUser(db: Db, id: number, body: UserUpdateBody, cost: number, actorId: number): Promise<User> {
+  const existing = await findUserById(db, id);
+  if (!existing) throw notFound('user-not-found');
+  const losesAdmin = existing.role === 'admin' && ((body.role && body.role !== 'admin') || body.disabled === true);
+  if (losesAdmin && (await countOtherActiveAdmins(db, id)) === 0) {
+    throw new HttpError(409, 'last-admin');
+  }
+  if (id === actorId && body.disabled === true) throw new HttpError(409, 'bad-request', 'You cannot disable your own account.');
+  const { password, ...rest } = body;
+  const values: Partial<{ name: string; role: Role; disabled: boolean; passwordHash: string }> = { ...rest };
+  if (password) values.passwordHash = await hashPassword(password, cost);
+  const user = await updateUser(db, id, values);
+  if (!user) throw notFound('user-not-found');
+  return user;
+}
+
+/** Check e-mail and password; the same time is spent whether or not the e-mail exists. */
+export async function signIn(db: Db, email: string, password: string): Promise<User> {
+  const found = await findUserWithHash(db, email);
+  const ok = await verifyPassword(password, found?.passwordHash ?? decoyHash);
+  if (!found || !ok) throw new HttpError(401, 'invalid-credentials');
+  if (found.disabled) throw new HttpError(401, 'account-disabled');
+  await touchLastLogin(db, found.id);
+  const { passwordHash: _omit, ...user } = found;
+  return user;
+}

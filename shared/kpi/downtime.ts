@@ -1,0 +1,391 @@
+// Downtime events, their classification and cause, lost production and Pareto tables (DESIGN §6, §7).
+//
+// A stop event runs from a running→stopped edge of an asset's run-status tag to the next
+// stopped→running edge. Planned when it overlaps the out-of-service window of a preventive or
+// inspection work order on the asset or one below it; cause = failure code of the corrective work order
+// (same scope) whose out-of-service window overlaps it most. Everything is in UTC instants.
+
+import type { WorkOrderStatus, WorkOrderType } from '#shared/schemas/enums.ts';
+import {
+  hoursBetween,
+  instantMs,
+  runStateSpans,
+  windowMs,
+  overlapMs,
+  type MsInterval,
+  type RunStatusSample,
+  type TimeWindow,
+} from './operating-time.ts';
+
+/** An asset with a run-status tag whose stops are counted. */
+export interface DowntimeAssetInput {
+  /** Asset code. */
+  asset: string;
+  /** Rated permeate flow in m³/h; null when the register has none (lost volume is then null). */
+  ratedPermeateM3h: number | null;
+  runStatusTag: string;
+  /** Good-quality run-status samples (1 running, 0 stopped). */
+  samples: readonly RunStatusSample[];
+  /** The last good sample before the window, if any: it gives the state at the window start. */
+  priorSample?: RunStatusSample | null;
+}
+
+/** One node of the asset tree (for "the asset or one below it"). */
+export interface AssetNode {
+  code: string;
+  parent: string | null;
+}
+
+export interface DowntimeWorkOrder {
+  woNumber: string;
+  asset: string;
+  type: WorkOrderType;
+  status: WorkOrderStatus;
+  failureCode: string | null;
+  outOfServiceFrom: Date | null;
+  outOfServiceTo: Date | null;
+}
+
+export interface DowntimeSettings {
+  /** Value of one m³ of permeate, in the plant's currency; null when not set (cost is then null). */
+  waterValuePerM3: number | null;
+}
+
+export interface DowntimeInput {
+  window: TimeWindow;
+  assets: readonly DowntimeAssetInput[];
+  assetTree: readonly AssetNode[];
+  workOrders: readonly DowntimeWorkOrder[];
+  settings: DowntimeSettings;
+}
+
+/** A stop span in milliseconds, with the flags saying where it was cut by the window or by missing data. */
+export interface StopSpan extends MsInterval {
+  /** The stop began before `fromMs`: at or before the window start, or before the first good sample. */
+  clippedAtStart: boolean;
+  /** The stop was still open at the window end and is cut there. */
+  clippedAtEnd: boolean;
+}
+
+export interface DowntimeEvent {
+  asset: string;
+  from: string;
+  to: string;
+  hours: number;
+  planned: boolean;
+  cause: string;
+  lostVolumeM3: number | null;
+  cost: number | null;
+  tag: string;
+  clippedAtStart: boolean;
+  clippedAtEnd: boolean;
+  /** Preventive or inspection work orders whose out-of-service window overlaps the stop. */
+  plannedBy: string[];
+  /** The corrective work order the cause comes from; null when none overlaps. */
+  causeWorkOrder: string | null;
+  causeOverlapHours: number;
+}
+
+export interface DowntimeTotal {
+  asset: string;
+  events: number;
+  hours: number;
+  plannedHours: number;
+  unplannedHours: number;
+  lostVolumeM3: number | null;
+  cost: number | null;
+  tag: string;
+  ratedPermeateM3h: number | null;
+}
+
+export interface ParetoRow {
+  key: string;
+  events: number;
+  hours: number;
+  plannedHours: number;
+  unplannedHours: number;
+  lostVolumeM3: number | null;
+  cost: number | null;
+  /** Share of all stop hours, 0–1. */
+  share: number;
+  /** Running sum of `share` down the sorted table, 0–1. */
+  cumulativeShare: number;
+}
+
+export interface DowntimeResult {
+  from: string;
+  to: string;
+  events: DowntimeEvent[];
+  totals: DowntimeTotal[];
+  paretoByCause: ParetoRow[];
+  paretoByAsset: ParetoRow[];
+  waterValuePerM3: number | null;
+  notes: string[];
+}
+
+export const UNKNOWN_CAUSE = 'unknown';
+
+/**
+ * Stop spans from run-status edges inside [from, to): each runs from a running→stopped change to the next
+ * stopped→running change. A stop still open at the window end is cut there (`clippedAtEnd`); a stop already
+ * under way at the window start (state known from `priorSample`), or whose start is hidden because the first
+ * good sample reads stopped, begins at the window start or that sample (`clippedAtStart`). Units: epoch ms.
+ * Degenerate input: no samples, or running throughout → []; stopped throughout → one span over the window.
+ */
+export function stopSpans(
+  samples: readonly RunStatusSample[],
+  window: TimeWindow,
+  priorSample?: RunStatusSample | null,
+): StopSpan[] {
+  const w = windowMs(window);
+  const { spans, stateBeforeWindow } = runStateSpans(samples, window, priorSample);
+  const stops: StopSpan[] = [];
+  spans.forEach((span, i) => {
+    if (span.state !== 'stopped') return;
+    // The state just before this span: the previous span's, or for a span opening the window the state
+    // carried in from before it (running there means a running→stopped edge exactly at the window start).
+    const previous = i > 0 ? spans[i - 1]!.state : stateBeforeWindow;
+    stops.push({
+      fromMs: span.fromMs,
+      toMs: span.toMs,
+      clippedAtStart: previous !== 'running',
+      clippedAtEnd: span.toMs === w.toMs,
+    });
+  });
+  return stops;
+}
+
+/**
+ * The codes of an asset and every asset below it in the tree. Source: DESIGN §6 (an asset's failures include
+ * those of the assets below it). An asset missing from the tree is its own, only, scope. A cycle is an error.
+ */
+export function assetScope(tree: readonly AssetNode[], code: string): Set<string> {
+  const children = new Map<string, string[]>();
+  for (const node of tree) {
+    if (node.parent === null) continue;
+    const list = children.get(node.parent) ?? [];
+    list.push(node.code);
+    children.set(node.parent, list);
+  }
+  const scope = new Set<string>([code]);
+  const stack = [code];
+  while (stack.length > 0) {
+    const current = stack.pop()!;
+    for (const child of children.get(current) ?? []) {
+      if (child === code || scope.has(child)) {
+        throw new RangeError(`asset tree has a cycle through ${child}`);
+      }
+      scope.add(child);
+      stack.push(child);
+    }
+  }
+  return scope;
+}
+
+function checkWorkOrders(workOrders: readonly DowntimeWorkOrder[]): CheckedWorkOrderLike[] {
+  return workOrders.map((wo, i) => {
+    const what = `workOrders[${i}] (${wo.woNumber})`;
+    if (wo.outOfServiceFrom === null || wo.outOfServiceTo === null) {
+      if (wo.outOfServiceFrom !== wo.outOfServiceTo) {
+        throw new RangeError(`${what}: out-of-service from and to must both be set or both be empty`);
+      }
+      return { ...wo, oos: null };
+    }
+    const fromMs = instantMs(wo.outOfServiceFrom, `${what}.outOfServiceFrom`);
+    const toMs = instantMs(wo.outOfServiceTo, `${what}.outOfServiceTo`);
+    if (toMs < fromMs) throw new RangeError(`${what}: out-of-service window ends before it starts`);
+    return { ...wo, oos: { fromMs, toMs } };
+  });
+}
+
+/**
+ * Classifies one stop. Planned: some non-cancelled preventive or inspection work order in `scope` has an
+ * out-of-service window sharing positive time with the stop. Cause: among non-cancelled corrective work
+ * orders in `scope`, the one whose out-of-service window shares the most time with the stop (ties: earlier
+ * window start, then lower work-order number); its failure code, or 'unknown' when it has none or no
+ * corrective work order overlaps. Source: DESIGN §6 (downtime). Cancelled work orders are left out: their
+ * windows are plans that did not happen.
+ */
+export function classifyStop(
+  stop: MsInterval,
+  scope: ReadonlySet<string>,
+  workOrders: readonly CheckedWorkOrderLike[],
+): { planned: boolean; plannedBy: string[]; cause: string; causeWorkOrder: string | null; causeOverlapHours: number } {
+  const relevant = workOrders.filter((wo) => wo.oos !== null && wo.status !== 'cancelled' && scope.has(wo.asset));
+  const plannedBy = relevant
+    .filter((wo) => (wo.type === 'preventive' || wo.type === 'inspection') && overlapMs(stop, wo.oos!) > 0)
+    .map((wo) => wo.woNumber);
+  let best: CheckedWorkOrderLike | null = null;
+  let bestOverlap = 0;
+  for (const wo of relevant) {
+    if (wo.type !== 'corrective') continue;
+    const overlap = overlapMs(stop, wo.oos!);
+    if (overlap <= 0) continue;
+    const better =
+      best === null ||
+      overlap > bestOverlap ||
+      (overlap === bestOverlap &&
+        (wo.oos!.fromMs < best.oos!.fromMs || (wo.oos!.fromMs === best.oos!.fromMs && wo.woNumber < best.woNumber)));
+    if (better) {
+      best = wo;
+      bestOverlap = overlap;
+    }
+  }
+  const code = best?.failureCode?.trim();
+  return {
+    planned: plannedBy.length > 0,
+    plannedBy,
+    cause: code ? code : UNKNOWN_CAUSE,
+    causeWorkOrder: best?.woNumber ?? null,
+    causeOverlapHours: hoursBetween(0, bestOverlap),
+  };
+}
+
+/** The fields `classifyStop` reads: a work order with its out-of-service window in milliseconds. */
+export interface CheckedWorkOrderLike {
+  woNumber: string;
+  asset: string;
+  type: WorkOrderType;
+  status: WorkOrderStatus;
+  failureCode: string | null;
+  oos: MsInterval | null;
+}
+
+function checkNonNegative(value: number | null, what: string): void {
+  if (value === null) return;
+  if (!Number.isFinite(value) || value < 0) throw new RangeError(`${what} must be a finite number ≥ 0, got ${value}`);
+}
+
+/**
+ * Pareto table: stop hours grouped by `key`, sorted by hours descending (ties by key), with each group's
+ * share of all stop hours and the cumulative share down the table. Lost volume and cost of a group are
+ * null when any of its events has them null. Source: Pareto analysis, common practice. Degenerate input:
+ * no events, or events of zero length only → [].
+ */
+export function paretoTable(events: readonly DowntimeEvent[], keyOf: (e: DowntimeEvent) => string): ParetoRow[] {
+  const groups = new Map<string, DowntimeEvent[]>();
+  for (const e of events) {
+    const key = keyOf(e);
+    const list = groups.get(key) ?? [];
+    list.push(e);
+    groups.set(key, list);
+  }
+  const total = events.reduce((acc, e) => acc + e.hours, 0);
+  if (total <= 0) return [];
+  const rows = [...groups.entries()].map(([key, list]) => ({
+    key,
+    events: list.length,
+    hours: sum(list.map((e) => e.hours)),
+    plannedHours: sum(list.filter((e) => e.planned).map((e) => e.hours)),
+    unplannedHours: sum(list.filter((e) => !e.planned).map((e) => e.hours)),
+    lostVolumeM3: sumOrNull(list.map((e) => e.lostVolumeM3)),
+    cost: sumOrNull(list.map((e) => e.cost)),
+    share: 0,
+    cumulativeShare: 0,
+  }));
+  rows.sort((a, b) => b.hours - a.hours || (a.key < b.key ? -1 : a.key > b.key ? 1 : 0));
+  let running = 0;
+  for (const row of rows) {
+    row.share = row.hours / total;
+    running += row.hours;
+    row.cumulativeShare = running / total;
+  }
+  return rows;
+}
+
+function sum(values: readonly number[]): number {
+  return values.reduce((acc, v) => acc + v, 0);
+}
+
+function sumOrNull(values: readonly (number | null)[]): number | null {
+  let acc = 0;
+  for (const v of values) {
+    if (v === null) return null;
+    acc += v;
+  }
+  return acc;
+}
+
+/**
+ * Downtime report over [from, to): stop events of each asset with a run-status tag, each classified
+ * planned/unplanned and given a cause; lost volume = stop hours × rated permeate flow (m³/h → m³);
+ * cost = lost volume × water value per m³; totals per asset; Pareto by cause and by asset.
+ *
+ * Source: DESIGN §6 (downtime) and §7 (`kpi downtime --json` keys). Stops are real elapsed time (UTC).
+ * Degenerate input: no assets → no events, no totals; an asset without samples → a zero totals row and a
+ * note; no rated flow → lost volume and cost null (noted); no water value → cost null (noted).
+ */
+export function downtimeReport(input: DowntimeInput): DowntimeResult {
+  windowMs(input.window);
+  const { waterValuePerM3 } = input.settings;
+  checkNonNegative(waterValuePerM3, 'settings.waterValuePerM3');
+  const workOrders = checkWorkOrders(input.workOrders);
+  const notes: string[] = [];
+  if (waterValuePerM3 === null) notes.push('No water value per m³ is set: costs are null.');
+
+  const seen = new Set<string>();
+  const events: DowntimeEvent[] = [];
+  const totals: DowntimeTotal[] = [];
+  for (const asset of input.assets) {
+    if (seen.has(asset.asset)) throw new RangeError(`asset ${asset.asset} is listed twice`);
+    seen.add(asset.asset);
+    checkNonNegative(asset.ratedPermeateM3h, `rated permeate flow of ${asset.asset}`);
+    if (asset.ratedPermeateM3h === null) {
+      notes.push(`${asset.asset} has no rated permeate flow: its lost volume and cost are null.`);
+    }
+    if (asset.samples.length === 0 && !asset.priorSample) {
+      notes.push(`${asset.asset} (${asset.runStatusTag}) has no good run-status sample in the window: no stops counted.`);
+    }
+    const scope = assetScope(input.assetTree, asset.asset);
+    const assetEvents: DowntimeEvent[] = [];
+    for (const stop of stopSpans(asset.samples, input.window, asset.priorSample)) {
+      const hours = hoursBetween(stop.fromMs, stop.toMs);
+      const c = classifyStop(stop, scope, workOrders);
+      const lostVolumeM3 = asset.ratedPermeateM3h === null ? null : hours * asset.ratedPermeateM3h;
+      assetEvents.push({
+        asset: asset.asset,
+        from: new Date(stop.fromMs).toISOString(),
+        to: new Date(stop.toMs).toISOString(),
+        hours,
+        planned: c.planned,
+        cause: c.cause,
+        lostVolumeM3,
+        cost: lostVolumeM3 === null || waterValuePerM3 === null ? null : lostVolumeM3 * waterValuePerM3,
+        tag: asset.runStatusTag,
+        clippedAtStart: stop.clippedAtStart,
+        clippedAtEnd: stop.clippedAtEnd,
+        plannedBy: c.plannedBy,
+        causeWorkOrder: c.causeWorkOrder,
+        causeOverlapHours: c.causeOverlapHours,
+      });
+    }
+    const hours = sum(assetEvents.map((e) => e.hours));
+    const lostVolumeM3 = asset.ratedPermeateM3h === null ? null : hours * asset.ratedPermeateM3h;
+    totals.push({
+      asset: asset.asset,
+      events: assetEvents.length,
+      hours,
+      plannedHours: sum(assetEvents.filter((e) => e.planned).map((e) => e.hours)),
+      unplannedHours: sum(assetEvents.filter((e) => !e.planned).map((e) => e.hours)),
+      lostVolumeM3,
+      cost: lostVolumeM3 === null || waterValuePerM3 === null ? null : lostVolumeM3 * waterValuePerM3,
+      tag: asset.runStatusTag,
+      ratedPermeateM3h: asset.ratedPermeateM3h,
+    });
+    events.push(...assetEvents);
+  }
+  if (events.some((e) => e.clippedAtEnd)) {
+    notes.push('Some stops were still open at the window end: they are cut there (clippedAtEnd).');
+  }
+  events.sort((a, b) => (a.from < b.from ? -1 : a.from > b.from ? 1 : a.asset < b.asset ? -1 : a.asset > b.asset ? 1 : 0));
+  return {
+    from: input.window.from.toISOString(),
+    to: input.window.to.toISOString(),
+    events,
+    totals,
+    paretoByCause: paretoTable(events, (e) => e.cause),
+    paretoByAsset: paretoTable(events, (e) => e.asset),
+    waterValuePerM3,
+    notes,
+  };
+}

@@ -1,0 +1,674 @@
+// Membrane element life: Kaplan–Meier survival with Greenwood bounds, a two-parameter Weibull fitted
+// by maximum likelihood with right censoring (with likelihood-ratio or Wald confidence intervals),
+// median-rank regression as a cross-check, and the life figures derived from a fit.
+// Time is in whatever unit the caller passes (Osmia passes days); every function is unit-agnostic.
+import {
+  assertFinite,
+  assertProbability,
+  chiSquareQuantile,
+  gammaFunction,
+  normalQuantile,
+  bracketedRoot,
+  type NullReason,
+} from './stats.ts';
+
+function checkLives(times: readonly number[], events: readonly boolean[]): void {
+  if (times.length !== events.length) {
+    throw new RangeError(`times and events differ in length (${times.length} vs ${events.length}).`);
+  }
+  times.forEach((t, i) => {
+    assertFinite(t, `times[${i}]`);
+    if (t < 0) throw new RangeError(`times[${i}] must be ≥ 0, got ${t}.`);
+  });
+  events.forEach((e, i) => {
+    if (typeof e !== 'boolean')
+      throw new RangeError(`events[${i}] must be true (life-ending event) or false (censored).`);
+  });
+}
+
+// ---------------------------------------------------------------------------------------------
+// Kaplan–Meier
+
+export interface KaplanMeierRow {
+  /** A distinct observed time (event or censoring). */
+  t: number;
+  /** Units with time ≥ t: a unit censored at t is still at risk at t. */
+  nRisk: number;
+  nEvents: number;
+  nCensored: number;
+  /** S(t), the estimate just after t. */
+  survival: number;
+  /** Greenwood standard error of S(t); null once S = 0. */
+  se: number | null;
+  /** Log-transformed bounds S·exp(∓z·√Σ d/(n(n−d))), upper capped at 1; null once S = 0. */
+  lower: number | null;
+  upper: number | null;
+}
+
+export interface KaplanMeierResult {
+  confidence: number;
+  n: number;
+  events: number;
+  rows: KaplanMeierRow[];
+  /** KM median; null with 'not-reached' when S never falls to 0.5, 'no-data' for no units. */
+  median: number | null;
+  medianLower: number | null;
+  medianUpper: number | null;
+  reason?: NullReason;
+}
+
+/**
+ * Kaplan–Meier product-limit estimate S(t) = Π_{t_j ≤ t} (1 − d_j/n_j) over distinct event times,
+ * n_j = units with time ≥ t_j (a censoring tied with an event is still at risk), with Greenwood's
+ * standard error S·√Σ d_j/(n_j(n_j − d_j)) and the log-transformed confidence interval
+ * S·exp(±z·√Σ d_j/(n_j(n_j − d_j))), z the (1 + C)/2 normal quantile, the upper limit capped at 1 —
+ * the conventions of R survival::survfit (defaults). Kaplan & Meier (1958), Greenwood (1926).
+ *
+ * One row per distinct time (events and censorings, as survfit lists them). The median is the first
+ * time S ≤ 0.5; where S equals 0.5 exactly over a stretch, the midpoint of that stretch (to the next
+ * drop, or to the last observed time), as survfit prints it. The median's limits are the same rule
+ * applied to the lower and upper curves. Degenerate input: no units → no rows, median null
+ * ('no-data'); all censored → S = 1 throughout, median null ('not-reached'). Throws on negative or
+ * non-finite times, length mismatch, or confidence outside (0, 1).
+ */
+export function kaplanMeier(
+  times: readonly number[],
+  events: readonly boolean[],
+  confidence: number,
+): KaplanMeierResult {
+  checkLives(times, events);
+  assertProbability(confidence, 'confidence', { open: true });
+  const z = normalQuantile((1 + confidence) / 2);
+  const order = times.map((t, i) => ({ t, e: events[i]! })).sort((a, b) => a.t - b.t);
+  const rows: KaplanMeierRow[] = [];
+  let atRisk = order.length;
+  let survival = 1;
+  let greenwood = 0;
+  let zeroReached = false;
+  for (let i = 0; i < order.length;) {
+    const t = order[i]!.t;
+    let d = 0;
+    let c = 0;
+    while (i < order.length && order[i]!.t === t) {
+      if (order[i]!.e) d += 1;
+      else c += 1;
+      i += 1;
+    }
+    if (d > 0) {
+      survival *= 1 - d / atRisk;
+      if (d < atRisk) greenwood += d / (atRisk * (atRisk - d));
+      else zeroReached = true;
+    }
+    const root = Math.sqrt(greenwood);
+    rows.push({
+      t,
+      nRisk: atRisk,
+      nEvents: d,
+      nCensored: c,
+      survival,
+      se: zeroReached ? null : survival * root,
+      lower: zeroReached ? null : survival * Math.exp(-z * root),
+      upper: zeroReached ? null : Math.min(1, survival * Math.exp(z * root)),
+    });
+    atRisk -= d + c;
+  }
+  const eventCount = events.filter(Boolean).length;
+  const base = { confidence, n: times.length, events: eventCount, rows };
+  if (rows.length === 0) return { ...base, median: null, medianLower: null, medianUpper: null, reason: 'no-data' };
+  // Past S = 0 the log-scale limits are undefined; the curve itself is 0 there, so are its limits.
+  const median = curveMedian(rows, (row) => row.survival);
+  return {
+    ...base,
+    median,
+    medianLower: curveMedian(rows, (row) => row.lower ?? 0),
+    medianUpper: curveMedian(rows, (row) => row.upper ?? 0),
+    ...(median === null ? { reason: 'not-reached' as const } : {}),
+  };
+}
+
+/** First time a step curve is ≤ 0.5, with survfit's midpoint rule for a stretch exactly at 0.5. */
+function curveMedian(rows: readonly KaplanMeierRow[], value: (row: KaplanMeierRow) => number): number | null {
+  const tolerance = Math.sqrt(Number.EPSILON);
+  for (let j = 0; j < rows.length; j++) {
+    const y = value(rows[j]!);
+    if (Math.abs(y - 0.5) < tolerance) {
+      for (let k = j + 1; k < rows.length; k++) {
+        if (value(rows[k]!) < 0.5 - tolerance) return (rows[j]!.t + rows[k]!.t) / 2;
+      }
+      return (rows[j]!.t + rows[rows.length - 1]!.t) / 2;
+    }
+    if (y < 0.5) return rows[j]!.t;
+  }
+  return null;
+}
+
+/**
+ * Restricted mean survival time ∫₀^τ S(t) dt of a Kaplan–Meier curve (area under the step
+ * function up to τ), in the unit of the times. Royston & Parmar (2013). τ must be ≥ 0; past the
+ * last row S keeps its last value.
+ */
+export function kmRestrictedMean(km: Pick<KaplanMeierResult, 'rows'>, tau: number): number {
+  assertFinite(tau, 'tau');
+  if (tau < 0) throw new RangeError(`tau must be ≥ 0, got ${tau}.`);
+  let area = 0;
+  let previousT = 0;
+  let s = 1;
+  for (const row of km.rows) {
+    if (row.t >= tau) break;
+    area += s * (row.t - previousT);
+    previousT = row.t;
+    s = row.survival;
+  }
+  return area + s * (tau - previousT);
+}
+
+// ---------------------------------------------------------------------------------------------
+// Weibull
+
+export interface WeibullParams {
+  /** β > 0, dimensionless. */
+  shape: number;
+  /** η > 0, in the unit of the times (days for elements). */
+  scale: number;
+}
+
+export type WeibullInterval = 'likelihood-ratio' | 'wald-log';
+
+export interface WeibullFit extends WeibullParams {
+  /** Units used (times > 0) and life-ending events among them. */
+  n: number;
+  events: number;
+  /** Units left out because their time is 0 (a zero life has no Weibull density). */
+  excludedZeroTimes: number;
+  logLik: number;
+  confidence: number;
+  intervalMethod: WeibullInterval;
+  /**
+   * Interval limits. A likelihood-ratio lower limit that does not close within a factor 10⁶ of the
+   * estimate is reported as 0 (a true, if weak, bound); such an upper limit is null and
+   * `upperReason` says 'unbounded' (heavily censored data can leave the likelihood almost flat).
+   */
+  shapeLower: number;
+  shapeUpper: number | null;
+  scaleLower: number;
+  scaleUpper: number | null;
+  upperReason?: NullReason;
+  /** Inverse observed information for (ln β, ln η): [[var ln β, cov], [cov, var ln η]]. */
+  covarianceLog: [[number, number], [number, number]];
+}
+
+export type WeibullFitResult =
+  { fit: WeibullFit; reason?: undefined } | { fit: null; reason: NullReason; n: number; events: number };
+
+export interface WeibullFitOptions {
+  /** Confidence level of the shape and scale intervals, default 0.9. */
+  confidence?: number;
+  /** Default 'likelihood-ratio'. */
+  interval?: WeibullInterval;
+}
+
+/** The censored Weibull log-likelihood of one data set, as a closure over the data. */
+interface Likelihood {
+  n: number;
+  r: number;
+  /** ℓ(β, η) = r ln β − rβ ln η + (β − 1) Σ_events ln t − Σ_all (t/η)^β. */
+  logLik(shape: number, scale: number): number;
+  /** ∂ℓ/∂β at fixed η. */
+  shapeScore(shape: number, scale: number): number;
+}
+
+interface LifeData {
+  times: number[];
+  events: boolean[];
+  excludedZeroTimes: number;
+}
+
+function positiveLives(times: readonly number[], events: readonly boolean[]): LifeData {
+  checkLives(times, events);
+  const kept: LifeData = { times: [], events: [], excludedZeroTimes: 0 };
+  times.forEach((t, i) => {
+    if (t === 0) kept.excludedZeroTimes += 1;
+    else {
+      kept.times.push(t);
+      kept.events.push(events[i]!);
+    }
+  });
+  return kept;
+}
+
+function makeLikelihood({ times, events }: LifeData): Likelihood {
+  const r = events.filter(Boolean).length;
+  let sumLnEvents = 0;
+  times.forEach((t, i) => {
+    if (events[i]) sumLnEvents += Math.log(t);
+  });
+  return {
+    n: times.length,
+    r,
+    logLik(shape, scale) {
+      let sumZ = 0;
+      for (const t of times) sumZ += Math.exp(shape * Math.log(t / scale));
+      return r * Math.log(shape) - r * shape * Math.log(scale) + (shape - 1) * sumLnEvents - sumZ;
+    },
+    shapeScore(shape, scale) {
+      let score = r / shape;
+      for (let i = 0; i < times.length; i++) {
+        const l = Math.log(times[i]! / scale);
+        if (events[i]) score += l;
+        // z·l with z = e^{βl}: for l = 0 the product is 0 even if z overflowed elsewhere.
+        if (l !== 0) score -= Math.exp(shape * l) * l;
+      }
+      return score;
+    },
+  };
+}
+
+const MAX_SHAPE = 1e4;
+
+/**
+ * Two-parameter Weibull fitted by maximum likelihood with right censoring. With r events among n
+ * units, the shape β solves the profile score equation
+ *   Σ_all t^β ln t / Σ_all t^β − 1/β − (1/r) Σ_events ln t = 0
+ * (increasing in β, so its root is unique; solved on a bracket), and the scale is then closed-form,
+ * η = (Σ_all t^β / r)^{1/β}. Lawless, Statistical Models and Methods for Lifetime Data, ch. 5;
+ * NIST/SEMATECH e-Handbook §8.4.1.2.
+ *
+ * Intervals at the given confidence C (default 0.9):
+ * - 'likelihood-ratio' (default): {θ : 2(ℓ̂ − ℓ_profile(θ)) ≤ χ²_C(1)} for β and for η separately;
+ *   better than Wald intervals at the small samples a plant has (Meeker & Escobar, Statistical
+ *   Methods for Reliability Data, ch. 8 — from memory).
+ * - 'wald-log': β·exp(±z·se(ln β)), η·exp(±z·se(ln η)) from the observed information matrix.
+ * `covarianceLog` (observed information, inverted, for ln β and ln η) is returned either way.
+ *
+ * Degenerate input: no units with time > 0 → null ('no-data'); no events → null ('no-events');
+ * every event at the longest time observed (e.g. one unit, or all failed at one age with nothing
+ * running longer) → the likelihood grows without bound as β → ∞: null ('shape-diverges'). Zero
+ * times are left out and counted (`excludedZeroTimes`). Throws on negative or non-finite times.
+ */
+export function fitWeibull(
+  times: readonly number[],
+  events: readonly boolean[],
+  options: WeibullFitOptions = {},
+): WeibullFitResult {
+  const confidence = options.confidence ?? 0.9;
+  const intervalMethod = options.interval ?? 'likelihood-ratio';
+  assertProbability(confidence, 'confidence', { open: true });
+  const data = positiveLives(times, events);
+  const likelihood = makeLikelihood(data);
+  const { n, r } = likelihood;
+  if (n === 0) return { fit: null, reason: 'no-data', n, events: r };
+  if (r === 0) return { fit: null, reason: 'no-events', n, events: r };
+  const mle = weibullMle(data, r);
+  if (mle === null) return { fit: null, reason: 'shape-diverges', n, events: r };
+  const { shape, scale } = mle;
+  const logLik = likelihood.logLik(shape, scale);
+  const covarianceLog = observedCovarianceLog(data.times, r, shape, scale);
+
+  let shapeLower: number;
+  let shapeUpper: number | null;
+  let scaleLower: number;
+  let scaleUpper: number | null;
+  if (intervalMethod === 'wald-log') {
+    const z = normalQuantile((1 + confidence) / 2);
+    const seShape = Math.sqrt(covarianceLog[0][0]);
+    const seScale = Math.sqrt(covarianceLog[1][1]);
+    shapeLower = shape * Math.exp(-z * seShape);
+    shapeUpper = shape * Math.exp(z * seShape);
+    scaleLower = scale * Math.exp(-z * seScale);
+    scaleUpper = scale * Math.exp(z * seScale);
+  } else {
+    const q = chiSquareQuantile(confidence, 1);
+    const shapeDeviance = (b: number): number =>
+      2 * (logLik - likelihood.logLik(b, profileScale(data.times, r, b))) - q;
+    shapeLower = likelihoodLimit(shapeDeviance, shape, -1) ?? 0;
+    shapeUpper = likelihoodLimit(shapeDeviance, shape, +1);
+    const scaleDeviance = (eta: number): number => 2 * (logLik - profileOverShape(likelihood, eta, shape)) - q;
+    scaleLower = likelihoodLimit(scaleDeviance, scale, -1) ?? 0;
+    scaleUpper = likelihoodLimit(scaleDeviance, scale, +1);
+  }
+  return {
+    fit: {
+      shape,
+      scale,
+      n,
+      events: r,
+      excludedZeroTimes: data.excludedZeroTimes,
+      logLik,
+      confidence,
+      intervalMethod,
+      shapeLower,
+      shapeUpper,
+      scaleLower,
+      scaleUpper,
+      ...(shapeUpper === null || scaleUpper === null ? { upperReason: 'unbounded' as const } : {}),
+      covarianceLog,
+    },
+  };
+}
+
+/** MLE (β̂, η̂) or null when every event sits at the longest time (no finite root). */
+function weibullMle({ times, events }: LifeData, r: number): WeibullParams | null {
+  const tMax = maxOf(times);
+  if (times.every((t, i) => !events[i] || t === tMax)) return null;
+  const lnU = times.map((t) => Math.log(t / tMax)); // ≤ 0, so u^β never overflows
+  let meanLnEvents = 0;
+  lnU.forEach((l, i) => {
+    if (events[i]) meanLnEvents += l / r;
+  });
+  const score = (b: number): number => {
+    let s0 = 0;
+    let s1 = 0;
+    for (const l of lnU) {
+      const w = Math.exp(b * l);
+      s0 += w;
+      s1 += w * l;
+    }
+    return s1 / s0 - 1 / b - meanLnEvents;
+  };
+  let lo = 1;
+  while (score(lo) > 0) lo /= 2;
+  let hi = 1;
+  while (score(hi) < 0) {
+    hi *= 2;
+    if (hi > MAX_SHAPE) return null;
+  }
+  const shape = bracketedRoot(score, lo, hi, 1e-15);
+  return { shape, scale: profileScale(times, r, shape) };
+}
+
+/** η̂(β) = (Σ t^β / r)^{1/β}, computed on t / max t so t^β cannot overflow. */
+function profileScale(times: readonly number[], r: number, shape: number): number {
+  const tMax = maxOf(times);
+  let s = 0;
+  for (const t of times) s += Math.exp(shape * Math.log(t / tMax));
+  return tMax * Math.exp(Math.log(s / r) / shape);
+}
+
+/** max over β of ℓ(β, η) at fixed η (ℓ is concave in β, so the root of ∂ℓ/∂β is the maximum). */
+function profileOverShape(likelihood: Likelihood, scale: number, start: number): number {
+  const score = (logB: number): number => likelihood.shapeScore(Math.exp(logB), scale);
+  // ∂ℓ/∂β → +∞ as β → 0 and turns negative for large β, so both loops end; the caps are a guard.
+  let lo = Math.log(start);
+  let hi = lo;
+  for (let i = 0; i < 200 && score(lo) < 0; i++) lo -= 1;
+  for (let i = 0; i < 200 && score(hi) > 0; i++) hi += 1;
+  const shape = Math.exp(lo === hi ? lo : bracketedRoot(score, lo, hi, 1e-14));
+  return likelihood.logLik(shape, scale);
+}
+
+/**
+ * Where a deviance function (negative at the estimate, rising away from it) crosses zero, searching
+ * on the log scale in `direction` from the estimate; null when it has not crossed within a factor 10⁶.
+ */
+function likelihoodLimit(deviance: (x: number) => number, estimate: number, direction: 1 | -1): number | null {
+  const f = (logX: number): number => deviance(Math.exp(logX));
+  const start = Math.log(estimate);
+  let inner = start;
+  let outer = start + direction * 0.05;
+  while (!(f(outer) > 0)) {
+    inner = outer;
+    outer = start + 2 * (outer - start);
+    if (Math.abs(outer - start) > Math.log(1e6)) return null;
+  }
+  return Math.exp(bracketedRoot(f, Math.min(inner, outer), Math.max(inner, outer), 1e-13));
+}
+
+/** Inverse of the observed information for (ln β, ln η) at the MLE. */
+function observedCovarianceLog(
+  times: readonly number[],
+  r: number,
+  shape: number,
+  scale: number,
+): [[number, number], [number, number]] {
+  let sumZ = 0;
+  let sumZL = 0;
+  let sumZL2 = 0;
+  for (const t of times) {
+    const l = Math.log(t / scale);
+    const z = Math.exp(shape * l);
+    sumZ += z;
+    sumZL += z * l;
+    sumZL2 += z * l * l;
+  }
+  // Observed information (minus the Hessian of ℓ) in (β, η).
+  const iBB = r / shape ** 2 + sumZL2;
+  const iEE = -((r * shape) / scale ** 2 - ((shape * (shape + 1)) / scale ** 2) * sumZ);
+  const iBE = -(-r / scale + sumZ / scale + (shape / scale) * sumZL);
+  // At the MLE the score is zero, so the log-scale information is J·I·J with J = diag(β, η).
+  const a = iBB * shape * shape;
+  const d = iEE * scale * scale;
+  const b = iBE * shape * scale;
+  const det = a * d - b * b;
+  return [
+    [d / det, -b / det],
+    [-b / det, a / det],
+  ];
+}
+
+/**
+ * Points on the boundary of the joint likelihood-ratio confidence region of (β, η):
+ * {(β, η) : 2(ℓ̂ − ℓ(β, η)) = χ²_C(dof)}, found along `points` rays from the MLE in (ln β, ln η)
+ * space (rays spread by the Cholesky factor of `covarianceLog`, so they are even around the region).
+ * dof = 1 gives the region whose extremes are the profile-likelihood interval of any single
+ * quantity computed from (β, η) (used for the forecast band); dof = 2 the joint region.
+ * A ray that has not closed at 10³ standard deviations stops there (`closed: false`).
+ * Returns [] when no fit is possible (same degenerate cases as fitWeibull).
+ */
+export function weibullConfidenceRegion(
+  times: readonly number[],
+  events: readonly boolean[],
+  options: { confidence?: number; dof?: 1 | 2; points?: number } = {},
+): Array<WeibullParams & { closed: boolean }> {
+  const confidence = options.confidence ?? 0.9;
+  const dof = options.dof ?? 1;
+  const points = options.points ?? 72;
+  if (!Number.isInteger(points) || points < 4) throw new RangeError('points must be a whole number ≥ 4.');
+  const result = fitWeibull(times, events, { confidence, interval: 'wald-log' });
+  if (result.fit === null) return [];
+  const { shape, scale, logLik, covarianceLog } = result.fit;
+  const likelihood = makeLikelihood(positiveLives(times, events));
+  const q = chiSquareQuantile(confidence, dof);
+  const l11 = Math.sqrt(covarianceLog[0][0]);
+  const l21 = covarianceLog[1][0] / l11;
+  const l22 = Math.sqrt(Math.max(covarianceLog[1][1] - l21 * l21, 0));
+  const region: Array<WeibullParams & { closed: boolean }> = [];
+  for (let k = 0; k < points; k++) {
+    const phi = (2 * Math.PI * k) / points;
+    const u = Math.cos(phi);
+    const v = Math.sin(phi);
+    const at = (rho: number): WeibullParams => ({
+      shape: shape * Math.exp(rho * l11 * u),
+      scale: scale * Math.exp(rho * (l21 * u + l22 * v)),
+    });
+    const deviance = (rho: number): number => {
+      const p = at(rho);
+      const value = 2 * (logLik - likelihood.logLik(p.shape, p.scale)) - q;
+      return Number.isNaN(value) ? Infinity : value;
+    };
+    let inner = 0;
+    let outer = Math.sqrt(q) / 2;
+    let closed = true;
+    while (!(deviance(outer) > 0)) {
+      inner = outer;
+      outer *= 2;
+      if (outer > 1e3) {
+        closed = false;
+        break;
+      }
+    }
+    const rho = closed ? bracketedRoot(deviance, inner, outer, 1e-12) : inner;
+    region.push({ ...at(rho), closed });
+  }
+  return region;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Median-rank regression
+
+export interface MedianRank {
+  t: number;
+  /** Order number j: 1, 2, 3, … for complete data; Johnson's adjusted number with censoring. */
+  rank: number;
+  /** Bernard's median rank (j − 0.3)/(n + 0.4). */
+  F: number;
+}
+
+/**
+ * Median ranks of the events, in time order: units sorted by time (at a tie, events before
+ * censorings; tied events keep consecutive numbers), each event's order number
+ * j_k = j_{k−1} + (n + 1 − j_{k−1})/(1 + units from this one onward) (Johnson's adjustment for
+ * censoring; 1, 2, 3, … with none), and F = (j − 0.3)/(n + 0.4) (Bernard). Common practice
+ * (Abernethy, The New Weibull Handbook — from memory). Zero times are left out; throws on negative
+ * or non-finite times.
+ */
+export function medianRanks(
+  times: readonly number[],
+  events: readonly boolean[] = times.map(() => true),
+): MedianRank[] {
+  return medianRanksOf(positiveLives(times, events));
+}
+
+function medianRanksOf(data: LifeData): MedianRank[] {
+  const n = data.times.length;
+  const order = data.times
+    .map((t, i) => ({ t, e: data.events[i]! }))
+    .sort((a, b) => a.t - b.t || Number(b.e) - Number(a.e));
+  const ranks: MedianRank[] = [];
+  let previous = 0;
+  order.forEach(({ t, e }, k) => {
+    if (!e) return;
+    previous += (n + 1 - previous) / (1 + (n - k));
+    ranks.push({ t, rank: previous, F: (previous - 0.3) / (n + 0.4) });
+  });
+  return ranks;
+}
+
+export type RegressionLine = WeibullParams;
+
+export interface MedianRankRegression {
+  /** Least squares of y = ln(−ln(1 − F)) on x = ln t: y = β·x − β·ln η. */
+  yOnX: RegressionLine;
+  /** Least squares of x on y: x = y/β + ln η. */
+  xOnY: RegressionLine;
+  /** Pearson correlation of x and y over the events. */
+  correlation: number;
+  n: number;
+  events: number;
+  excludedZeroTimes: number;
+}
+
+export type MedianRankRegressionResult =
+  { fit: MedianRankRegression; reason?: undefined } | { fit: null; reason: NullReason; n: number; events: number };
+
+/**
+ * Weibull median-rank regression (probability-plot fit), common practice: order the units by time
+ * (at a tie, events before censorings; tied events keep consecutive ranks), give each event a
+ * median rank F = (j − 0.3)/(n + 0.4) (Bernard's approximation), where j is its order number, or —
+ * with censoring — Johnson's adjusted order number j_k = j_{k−1} + (n + 1 − j_{k−1})/(1 + units
+ * from this one onward); fit a straight line to x = ln t, y = ln(−ln(1 − F)) both ways.
+ * `events` defaults to all true (complete data). Null ('too-few-events') with fewer than two events
+ * or all events at one time; 'no-data' with no units. Zero times are left out and counted; throws on
+ * negative or non-finite times.
+ */
+export function weibullMedianRankRegression(
+  times: readonly number[],
+  events: readonly boolean[] = times.map(() => true),
+): MedianRankRegressionResult {
+  const data = positiveLives(times, events);
+  const n = data.times.length;
+  const ranks = medianRanksOf(data);
+  const xs = ranks.map((p) => Math.log(p.t));
+  const ys = ranks.map((p) => Math.log(-Math.log(1 - p.F)));
+  const r = xs.length;
+  if (n === 0) return { fit: null, reason: 'no-data', n, events: r };
+  if (r < 2 || xs.every((x) => x === xs[0])) return { fit: null, reason: 'too-few-events', n, events: r };
+  const mx = xs.reduce((s, x) => s + x, 0) / r;
+  const my = ys.reduce((s, y) => s + y, 0) / r;
+  let sxx = 0;
+  let syy = 0;
+  let sxy = 0;
+  for (let i = 0; i < r; i++) {
+    sxx += (xs[i]! - mx) ** 2;
+    syy += (ys[i]! - my) ** 2;
+    sxy += (xs[i]! - mx) * (ys[i]! - my);
+  }
+  const slopeYX = sxy / sxx; // = β
+  const slopeXY = sxy / syy; // = 1/β
+  return {
+    fit: {
+      yOnX: { shape: slopeYX, scale: Math.exp(mx - my / slopeYX) },
+      xOnY: { shape: 1 / slopeXY, scale: Math.exp(mx - slopeXY * my) },
+      correlation: sxy / Math.sqrt(sxx * syy),
+      n,
+      events: r,
+      excludedZeroTimes: data.excludedZeroTimes,
+    },
+  };
+}
+
+// ---------------------------------------------------------------------------------------------
+// Life figures from a fit
+
+function checkParams({ shape, scale }: WeibullParams): void {
+  assertFinite(shape, 'shape');
+  assertFinite(scale, 'scale');
+  if (shape <= 0 || scale <= 0) throw new RangeError('Weibull shape and scale must be > 0.');
+}
+
+/** Weibull p-quantile (B_{100p} life) η·(−ln(1 − p))^{1/β}, in the unit of η; p in [0, 1). */
+export function weibullQuantile(params: WeibullParams, p: number): number {
+  checkParams(params);
+  assertProbability(p, 'p', { open: false });
+  if (p === 1) throw new RangeError('The 1-quantile of a Weibull distribution is infinite.');
+  return params.scale * (-Math.log1p(-p)) ** (1 / params.shape);
+}
+
+/** Reliability (survival) R(t) = exp(−(t/η)^β), t ≥ 0 in the unit of η. NIST e-Handbook §8.1.6.2. */
+export function weibullReliability(params: WeibullParams, t: number): number {
+  checkParams(params);
+  assertFinite(t, 't');
+  if (t < 0) throw new RangeError(`t must be ≥ 0, got ${t}.`);
+  return Math.exp(-((t / params.scale) ** params.shape));
+}
+
+/**
+ * Probability that a unit that has survived to age a has a life-ending event within the next h:
+ * 1 − R(a + h)/R(a) = 1 − exp((a/η)^β − ((a + h)/η)^β) (DESIGN §6). a, h ≥ 0 in the unit of η.
+ */
+export function weibullConditionalFailureProbability(params: WeibullParams, age: number, horizon: number): number {
+  checkParams(params);
+  assertFinite(age, 'age');
+  assertFinite(horizon, 'horizon');
+  if (age < 0 || horizon < 0) throw new RangeError('age and horizon must be ≥ 0.');
+  const { shape, scale } = params;
+  // 0 − expm1(x) rather than −expm1(x): a zero horizon gives +0, not −0.
+  return 0 - Math.expm1((age / scale) ** shape - ((age + horizon) / scale) ** shape);
+}
+
+export interface WeibullLifeStats {
+  /** B10 life: the age by which 10 % have had a life-ending event, η(−ln 0.9)^{1/β}. */
+  b10: number;
+  /** Median (B50) life η(ln 2)^{1/β}. */
+  median: number;
+  /** Mean life η·Γ(1 + 1/β) (Γ from jstat). */
+  mean: number;
+}
+
+/**
+ * B10, median and mean life of a Weibull(β, η), in the unit of η (NIST e-Handbook §8.1.6.2 for
+ * the mean η·Γ(1 + 1/β)). Throws on a non-positive or non-finite parameter.
+ */
+export function weibullLifeStats(params: WeibullParams): WeibullLifeStats {
+  checkParams(params);
+  return {
+    b10: weibullQuantile(params, 0.1),
+    median: weibullQuantile(params, 0.5),
+    mean: params.scale * gammaFunction(1 + 1 / params.shape),
+  };
+}
+
+function maxOf(values: readonly number[]): number {
+  let max = -Infinity;
+  for (const x of values) if (x > max) max = x;
+  return max;
+}

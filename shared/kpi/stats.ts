@@ -1,0 +1,182 @@
+// Small statistical helpers shared by the KPI modules: distribution quantiles (through jstat, a
+// reference library, rather than home-made approximations), sample summaries and the "null with a
+// reason" result every undefined ratio uses instead of NaN or Infinity.
+import jstat from 'jstat';
+
+import { type NullReason, quantileMethodType7 } from '#shared/schemas/kpi.ts';
+
+/**
+ * Why a KPI value is null: kebab-case codes (STYLE §4) listed with the API schemas, since answers
+ * carry them; `nullReasonMessages` turns a code into a sentence.
+ */
+export { nullReasons, type NullReason } from '#shared/schemas/kpi.ts';
+
+export const nullReasonMessages: Record<NullReason, string> = {
+  'no-data': 'There is no data in the window.',
+  'no-failures': 'No failures in the window, so there is no mean time between failures or to restoration.',
+  'no-events': 'Every life is censored (no life-ending event), so no lifetime distribution can be fitted.',
+  'no-operating-time': 'The asset did not operate in the window.',
+  'no-repairs': 'No repair with both a start and a completion time.',
+  'no-time': 'Up time and down time are both zero.',
+  'too-few-values': 'At least two values are needed.',
+  'too-few-events': 'At least two life-ending events at different ages are needed.',
+  'shape-diverges':
+    'Every life-ending event happened at the longest age observed, so the Weibull shape grows without bound (no finite fit).',
+  'survival-zero': 'The survival estimate has reached zero; its standard error and log-scale bounds are undefined.',
+  'not-reached': 'The survival curve (or its confidence limit) never falls to one half.',
+  unbounded: 'The likelihood-ratio interval does not close within the searched range.',
+  'no-jobs': 'No jobs in this group.',
+  'no-fit': 'No Weibull fit is available for this group.',
+};
+
+/** A number, or null with the reason it is undefined. Never NaN or Infinity. */
+export type Ratio = { value: number; reason?: undefined } | { value: null; reason: NullReason };
+
+export function valueOf(value: number): Ratio {
+  if (!Number.isFinite(value)) throw new RangeError(`A KPI value must be finite, got ${value}.`);
+  return { value };
+}
+
+export function nullBecause(reason: NullReason): Ratio {
+  return { value: null, reason };
+}
+
+/** numerator / denominator, or null with `reasonIfZero` when the denominator is 0. */
+export function ratio(numerator: number, denominator: number, reasonIfZero: NullReason): Ratio {
+  assertFinite(numerator, 'numerator');
+  assertFinite(denominator, 'denominator');
+  if (denominator === 0) return nullBecause(reasonIfZero);
+  return valueOf(numerator / denominator);
+}
+
+export function assertFinite(x: number, what: string): void {
+  if (typeof x !== 'number' || !Number.isFinite(x))
+    throw new RangeError(`${what} must be a finite number, got ${String(x)}.`);
+}
+
+export function assertProbability(p: number, what: string, { open }: { open: boolean }): void {
+  assertFinite(p, what);
+  if (open ? !(p > 0 && p < 1) : !(p >= 0 && p <= 1)) {
+    throw new RangeError(`${what} must lie in ${open ? '(0, 1)' : '[0, 1]'}, got ${p}.`);
+  }
+}
+
+function assertValues(values: readonly number[], what: string): void {
+  values.forEach((x, i) => assertFinite(x, `${what}[${i}]`));
+}
+
+/**
+ * Chi-square p-quantile χ²_p(ν): the value a chi-square variable with ν degrees of freedom falls
+ * below with probability p (the lower-tail convention of NIST/SEMATECH e-Handbook §8.4.5.1).
+ * Computed by jstat (`jStat.chisquare.inv`). Throws on p outside (0, 1) or ν ≤ 0.
+ */
+export function chiSquareQuantile(p: number, degreesOfFreedom: number): number {
+  assertProbability(p, 'p', { open: true });
+  assertFinite(degreesOfFreedom, 'degreesOfFreedom');
+  if (degreesOfFreedom <= 0) throw new RangeError(`degreesOfFreedom must be > 0, got ${degreesOfFreedom}.`);
+  return jstat.jStat.chisquare.inv(p, degreesOfFreedom);
+}
+
+/** Standard normal p-quantile z_p (jstat). z_0.975 = 1.959963984540054. Throws on p outside (0, 1). */
+export function normalQuantile(p: number): number {
+  assertProbability(p, 'p', { open: true });
+  return jstat.jStat.normal.inv(p, 0, 1);
+}
+
+/** Gamma function Γ(x) for x > 0 (jstat's Lanczos implementation). */
+export function gammaFunction(x: number): number {
+  assertFinite(x, 'x');
+  if (x <= 0) throw new RangeError(`gammaFunction is used for x > 0 only, got ${x}.`);
+  return jstat.jStat.gammafn(x);
+}
+
+/** The quantile definition every KPI answer states (`quantileMethod`). */
+export const quantileMethod = quantileMethodType7;
+
+/**
+ * Sample quantile, definition 7 of Hyndman & Fan (1996), the default of R `quantile` and numpy
+ * `quantile(method='linear')`: with the values sorted x[0] ≤ … ≤ x[n−1] and h = (n − 1)·p,
+ * Q(p) = x[⌊h⌋] + (h − ⌊h⌋)·(x[⌊h⌋+1] − x[⌊h⌋]).
+ *
+ * Written out here rather than taken from simple-statistics: its `quantileSorted` switched to this
+ * definition only in 7.9.0 (earlier releases used an n·p rule), so spelling it out keeps the answer
+ * independent of the installed version. The tests compare it with simple-statistics 7.12.1.
+ * Returns null ('no-data') for no values; throws on p outside [0, 1] or a non-finite value.
+ */
+export function quantileType7(values: readonly number[], p: number): Ratio {
+  assertProbability(p, 'p', { open: false });
+  assertValues(values, 'values');
+  if (values.length === 0) return nullBecause('no-data');
+  const sorted = [...values].sort((a, b) => a - b);
+  return valueOf(quantileType7Sorted(sorted, p));
+}
+
+/** quantileType7 on values already sorted ascending (not checked); n ≥ 1. */
+export function quantileType7Sorted(sorted: readonly number[], p: number): number {
+  const h = (sorted.length - 1) * p;
+  const lo = Math.floor(h);
+  const hi = Math.min(lo + 1, sorted.length - 1);
+  return sorted[lo]! + (h - lo) * (sorted[hi]! - sorted[lo]!);
+}
+
+/** Arithmetic mean; null ('no-data') for no values. */
+export function mean(values: readonly number[]): Ratio {
+  assertValues(values, 'values');
+  if (values.length === 0) return nullBecause('no-data');
+  let sum = 0;
+  for (const x of values) sum += x;
+  return valueOf(sum / values.length);
+}
+
+/** Median = type-7 quantile at p = 0.5 (the middle value, or the mean of the two middle values). */
+export function median(values: readonly number[]): Ratio {
+  return quantileType7(values, 0.5);
+}
+
+/**
+ * Sample standard deviation with the n − 1 divisor, √(Σ(x − x̄)²/(n − 1)), two-pass for accuracy.
+ * Null ('too-few-values') for fewer than two values.
+ */
+export function sampleSd(values: readonly number[]): Ratio {
+  assertValues(values, 'values');
+  if (values.length < 2) return nullBecause('too-few-values');
+  const m = mean(values).value!;
+  let ss = 0;
+  for (const x of values) ss += (x - m) ** 2;
+  return valueOf(Math.sqrt(ss / (values.length - 1)));
+}
+
+/**
+ * Root of a continuous function on [lo, hi] whose ends have opposite signs (bisection on the
+ * bracket, Illinois-style false position to converge fast). Used for monotone score equations.
+ */
+export function bracketedRoot(f: (x: number) => number, lo: number, hi: number, tolerance = 1e-13): number {
+  let a = lo;
+  let b = hi;
+  let fa = f(a);
+  let fb = f(b);
+  if (fa === 0) return a;
+  if (fb === 0) return b;
+  if (Math.sign(fa) === Math.sign(fb)) throw new RangeError('bracketedRoot: the bracket does not change sign.');
+  let side = 0;
+  for (let i = 0; i < 300; i++) {
+    let c = (a * fb - b * fa) / (fb - fa);
+    if (!Number.isFinite(c) || c <= Math.min(a, b) || c >= Math.max(a, b)) c = (a + b) / 2;
+    // Every fourth step bisect, so a flat or infinite end cannot stall the false position.
+    if (i % 4 === 3) c = (a + b) / 2;
+    const fc = f(c);
+    if (fc === 0 || Math.abs(b - a) <= tolerance * Math.max(1, Math.abs(c))) return c;
+    if (Math.sign(fc) === Math.sign(fb)) {
+      b = c;
+      fb = fc;
+      if (side === -1) fa /= 2;
+      side = -1;
+    } else {
+      a = c;
+      fa = fc;
+      if (side === 1) fb /= 2;
+      side = 1;
+    }
+  }
+  return (a + b) / 2;
+}

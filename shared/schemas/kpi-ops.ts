@@ -1,0 +1,266 @@
+// Answers and queries of the operations KPIs: performance (normalized membrane performance),
+// downtime and maintenance mix (GET /api/kpi/<name>, `osmia kpi <name> --json`). Key names follow
+// DESIGN §7: camelCase with unit suffixes; the downtime keys listed there may not be renamed, further
+// keys may be added. The objects are those of shared/kpi/performance.ts, downtime.ts and
+// maintenance-mix.ts, wrapped with the site, the resolved window and provenance by the service.
+import { z } from 'zod';
+
+import { isoInstantSchema, windowQuerySchema } from './common.ts';
+import { provenanceSchema } from './kpi.ts';
+
+const hours = z.number().nonnegative();
+const fraction = z.number().min(0).max(1);
+const count = z.number().int().nonnegative();
+const m3 = z.number().nonnegative();
+const money = z.number().nonnegative();
+/** A sentence saying why the figures beside it are null; null when none is. */
+const reason = z.string().nullable();
+
+// ---------------------------------------------------------------------------------------------
+// Performance
+
+export const feedBrineAverages = ['log-mean', 'arithmetic'] as const;
+
+/** GET /api/kpi/performance: `asset` is a train (every stage below it) or a stage. */
+export const performanceQuerySchema = windowQuerySchema.extend({
+  /** Feed-brine average concentration; log-mean is ASTM D4516's primary form. */
+  feedBrineAverage: z.enum(feedBrineAverages).default('log-mean'),
+  /** Apply the viscosity term 1 + 0.017(T − 25) to normalized ΔP (a variant; off by default). */
+  viscosityCorrection: z.union([z.boolean(), z.stringbool()]).default(false),
+});
+export type PerformanceQuery = z.infer<typeof performanceQuerySchema>;
+
+export const performanceSettingsSchema = z.object({
+  tdsFactor: z.number().positive(),
+  osmoticBarPerMgL: z.number().positive(),
+  uBelow25K: z.number().positive(),
+  uAtOrAbove25K: z.number().positive(),
+  feedBrineAverage: z.enum(feedBrineAverages),
+  dpFlowExponent: z.number().positive(),
+  dpViscosityCorrection: z.boolean(),
+  dpViscosityPerC: z.number().nonnegative(),
+  flowDropPct: z.number().positive(),
+  dpRisePct: z.number().positive(),
+  saltPassageRisePct: z.number().positive(),
+});
+
+/** Every intermediate of one operating point (bar, m³/h, mg/L, °C, %). */
+export const stageStateSchema = z.object({
+  time: isoInstantSchema,
+  recovery: z.number().gt(0).lt(1),
+  concentrateFlowM3h: z.number().positive(),
+  measuredConcentrateFlowM3h: z.number().nonnegative().nullable(),
+  concentrateFlowGapPct: z.number().nullable(),
+  feedTdsMgL: z.number().positive(),
+  permeateTdsMgL: z.number().nonnegative(),
+  concentrateTdsMgL: z.number(),
+  feedBrineTdsMgL: z.number(),
+  feedBrineAverage: z.enum(feedBrineAverages),
+  osmoticFeedBrineBar: z.number(),
+  osmoticPermeateBar: z.number().nonnegative(),
+  differentialPressureBar: z.number().nonnegative(),
+  netDrivingPressureBar: z.number(),
+  tcf: z.number().positive(),
+  tempC: z.number(),
+  permeateFlowM3h: z.number().positive(),
+  saltPassagePct: z.number().nonnegative(),
+  averageFeedBrineFlowM3h: z.number().positive(),
+});
+
+export const normalizedValuesSchema = z.object({
+  permeateFlowM3h: z.number().nullable(),
+  saltPassagePct: z.number().nonnegative(),
+  differentialPressureBar: z.number().nonnegative(),
+  baselinePermeateFlowM3h: z.number().positive(),
+  baselineSaltPassagePct: z.number().nonnegative(),
+  baselineDifferentialPressureBar: z.number().nonnegative(),
+  permeateFlowChangePct: z.number().nullable(),
+  saltPassageChangePct: z.number(),
+  differentialPressureChangePct: z.number(),
+  nullReason: reason,
+});
+
+export const normalizedPointSchema = z.object({ state: stageStateSchema, normalized: normalizedValuesSchema });
+
+export const performanceAlertSchema = z.object({
+  kind: z.enum(['permeate-flow-drop', 'differential-pressure-rise', 'salt-passage-rise']),
+  time: isoInstantSchema,
+  since: isoInstantSchema,
+  changePct: z.number(),
+  thresholdPct: z.number().positive(),
+  value: z.number(),
+  baselineValue: z.number(),
+  unit: z.enum(['m3/h', '%', 'bar']),
+  message: z.string(),
+  recommendation: z.string(),
+  /** Safety cautions (shared/cautions.ts); never empty. */
+  cautions: z.array(z.string()).min(1),
+});
+
+export const performanceBaselineSchema = z.object({
+  index: count,
+  time: isoInstantSchema,
+  reason: z.enum(['first-running-day', 'after-reset']),
+  resetAt: isoInstantSchema.nullable(),
+  state: stageStateSchema,
+});
+
+/** One stage's series (ASTM D4516 standardizes stage by stage). */
+export const performanceStageSchema = z.object({
+  /** Stage asset code. */
+  asset: z.string(),
+  /** Train the stage belongs to, when known. */
+  train: z.string().nullable().optional(),
+  baseline: performanceBaselineSchema.nullable(),
+  points: z.array(normalizedPointSchema),
+  latest: normalizedPointSchema.nullable(),
+  alerts: z.array(performanceAlertSchema),
+  settings: performanceSettingsSchema,
+  notes: z.array(z.string()),
+  /** Element changes and cleanings considered for the baseline. */
+  resets: z.array(isoInstantSchema).optional(),
+});
+
+export const performanceReportSchema = z.object({
+  site: z.string().optional(),
+  from: isoInstantSchema.nullable(),
+  to: isoInstantSchema.nullable(),
+  stages: z.array(performanceStageSchema),
+  provenance: provenanceSchema.optional(),
+});
+export type PerformanceReport = z.infer<typeof performanceReportSchema>;
+
+// ---------------------------------------------------------------------------------------------
+// Downtime
+
+/** GET /api/kpi/downtime: `asset` limits the answer to that asset and the assets below it. */
+export const downtimeQuerySchema = windowQuerySchema.extend({});
+export type DowntimeQuery = z.infer<typeof downtimeQuerySchema>;
+
+/** DESIGN §7 keys: asset, from, to, hours, planned, cause, lostVolumeM3. */
+export const downtimeEventSchema = z.object({
+  asset: z.string(),
+  from: isoInstantSchema,
+  to: isoInstantSchema,
+  hours,
+  planned: z.boolean(),
+  /** Failure code of the best-overlapping corrective work order, or 'unknown'. */
+  cause: z.string(),
+  /** Null when the asset has no rated permeate flow. */
+  lostVolumeM3: m3.nullable(),
+  cost: money.nullable(),
+  tag: z.string(),
+  clippedAtStart: z.boolean(),
+  clippedAtEnd: z.boolean(),
+  plannedBy: z.array(z.string()),
+  causeWorkOrder: z.string().nullable(),
+  causeOverlapHours: hours,
+});
+
+/** DESIGN §7 keys: asset, events, hours, plannedHours, unplannedHours, lostVolumeM3, cost. */
+export const downtimeTotalSchema = z.object({
+  asset: z.string(),
+  events: count,
+  hours,
+  plannedHours: hours,
+  unplannedHours: hours,
+  lostVolumeM3: m3.nullable(),
+  cost: money.nullable(),
+  tag: z.string(),
+  ratedPermeateM3h: z.number().nonnegative().nullable(),
+});
+
+export const paretoRowSchema = z.object({
+  key: z.string(),
+  events: count,
+  hours,
+  plannedHours: hours,
+  unplannedHours: hours,
+  lostVolumeM3: m3.nullable(),
+  cost: money.nullable(),
+  share: fraction,
+  cumulativeShare: fraction,
+});
+
+export const downtimeReportSchema = z.object({
+  site: z.string().optional(),
+  from: isoInstantSchema,
+  to: isoInstantSchema,
+  events: z.array(downtimeEventSchema),
+  totals: z.array(downtimeTotalSchema),
+  paretoByCause: z.array(paretoRowSchema),
+  paretoByAsset: z.array(paretoRowSchema),
+  waterValuePerM3: money.nullable(),
+  currency: z.string().optional(),
+  notes: z.array(z.string()),
+  provenance: provenanceSchema.optional(),
+});
+export type DowntimeReport = z.infer<typeof downtimeReportSchema>;
+
+// ---------------------------------------------------------------------------------------------
+// Maintenance mix
+
+/** GET /api/kpi/maintenance-mix: `asset` limits the work orders to that asset and the assets below it. */
+export const maintenanceMixQuerySchema = windowQuerySchema.extend({
+  /** Count cancelled preventive orders as missed PMs (default: they leave the denominator). */
+  cancelledPmCountsAsMissed: z.union([z.boolean(), z.stringbool()]).default(false),
+});
+export type MaintenanceMixQuery = z.infer<typeof maintenanceMixQuerySchema>;
+
+export const labourMixSchema = z.object({
+  plannedHours: hours,
+  reactiveHours: hours,
+  improvementHours: hours,
+  totalHours: hours,
+  plannedShare: fraction.nullable(),
+  reactiveShare: fraction.nullable(),
+  improvementShare: fraction.nullable(),
+  reason,
+  workOrders: z.array(z.string()),
+});
+
+export const pmComplianceSchema = z.object({
+  definition: z.string(),
+  raised: count,
+  cancelled: count,
+  due: count,
+  completedInWindow: count,
+  compliance: fraction.nullable(),
+  reason,
+  completed: z.array(z.string()),
+  missed: z.array(z.string()),
+});
+
+export const backlogSchema = z.object({
+  workOrders: count,
+  hours,
+  withoutEstimate: count,
+  crewCapacityHoursPerWeek: z.number().nonnegative().nullable(),
+  weeks: z.number().nonnegative().nullable(),
+  reason,
+  list: z.array(z.string()),
+});
+
+export const maintenanceCostSchema = z.object({
+  labourCost: money,
+  partsCost: money,
+  totalCost: money,
+  producedM3: m3.nullable(),
+  costPerM3: money.nullable(),
+  reason,
+});
+
+export const maintenanceMixReportSchema = z.object({
+  site: z.string().optional(),
+  asset: z.string().optional(),
+  from: isoInstantSchema,
+  to: isoInstantSchema,
+  labour: labourMixSchema,
+  pmCompliance: pmComplianceSchema,
+  backlog: backlogSchema,
+  cost: maintenanceCostSchema,
+  currency: z.string().optional(),
+  notes: z.array(z.string()),
+  provenance: provenanceSchema.optional(),
+});
+export type MaintenanceMixReport = z.infer<typeof maintenanceMixReportSchema>;

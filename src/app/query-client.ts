@@ -1,0 +1,31 @@
+import { MutationCache, QueryClient } from '@tanstack/react-query';
+import { showToast } from '../components/ui/toast.tsx';
+import { ApiError, getErrorMessage } from '../lib/api-client.ts';
+import type {} from '../lib/query-meta.ts';
+
+/** A 4xx will answer the same on a second try; only network trouble and 5xx are retried. */
+function shouldRetry(failureCount: number, error: unknown): boolean {
+  if (error instanceof ApiError && error.status >= 400 && error.status < 500) return false;
+  return failureCount < 2;
+}
+
+export function createQueryClient(): QueryClient {
+  return new QueryClient({
+    defaultOptions: {
+      queries: { staleTime: 30_000, retry: shouldRetry },
+      mutations: { retry: false },
+    },
+    // Every failed mutation is reported once, here, unless its form shows the error itself.
+    mutationCache: new MutationCache({
+      onError: (error, _variables, _context, mutation) => {
+        const title = mutation.meta?.errorTitle;
+        if (title === false) return;
+        showToast({ tone: 'error', title: title ?? 'The change was not saved', message: getErrorMessage(error) });
+      },
+      onSuccess: (_data, _variables, _context, mutation) => {
+        const title = mutation.meta?.successTitle;
+        if (title) showToast({ tone: 'success', title });
+      },
+    }),
+  });
+}

@@ -1,0 +1,56 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
+import { createBrowserRouter, RouterProvider } from 'react-router-dom';
+import { pageById } from '../config/navigation.ts';
+import { requireUser } from './guard.tsx';
+import { AppShell } from './layout/app-shell.tsx';
+import { RouteErrorRoute } from './routes/route-error.tsx';
+
+// Pages load on demand: each route module brings its loader (built around the app's query client,
+// prefetching the queryOptions its components read) and its component. Only pages whose entry in
+// config/navigation.ts is ready have a route here.
+const relative = (path: string) => path.replace(/^\//, '');
+
+export function createAppRouter(queryClient: QueryClient) {
+  return createBrowserRouter([
+    {
+      path: '/sign-in',
+      errorElement: <RouteErrorRoute />,
+      lazy: () => import('./routes/sign-in.tsx').then((m) => ({ loader: m.createSignInLoader(queryClient), Component: m.SignInRoute })),
+    },
+    {
+      path: '/',
+      element: <AppShell />,
+      errorElement: <RouteErrorRoute />,
+      loader: async ({ request }) => {
+        await requireUser(queryClient, request);
+        return null;
+      },
+      children: [
+        {
+          index: true,
+          lazy: () =>
+            import('./routes/dashboard.tsx').then((m) => ({ loader: m.createDashboardLoader(queryClient), Component: m.DashboardRoute })),
+        },
+        {
+          path: relative(pageById('users').path),
+          lazy: () => import('./routes/users.tsx').then((m) => ({ loader: m.createUsersLoader(queryClient), Component: m.UsersRoute })),
+        },
+        {
+          path: relative(pageById('settings').path),
+          lazy: () =>
+            import('./routes/settings.tsx').then((m) => ({ loader: m.createSettingsLoader(queryClient), Component: m.SettingsRoute })),
+        },
+        {
+          path: '*',
+          lazy: () => import('./routes/not-found.tsx').then((m) => ({ Component: m.NotFoundRoute })),
+        },
+      ],
+    },
+  ]);
+}
+
+export function AppRouter({ queryClient }: { queryClient: QueryClient }) {
+  const [router] = useState(() => createAppRouter(queryClient));
+  return <RouterProvider router={router} />;
+}

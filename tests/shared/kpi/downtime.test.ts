@@ -1,0 +1,291 @@
+import { describe, expect, it } from 'vitest';
+import {
+  assetScope,
+  downtimeReport,
+  stopSpans,
+  type AssetNode,
+  type DowntimeInput,
+  type DowntimeWorkOrder,
+} from '#shared/kpi/downtime.ts';
+import type { RunStatusSample } from '#shared/kpi/operating-time.ts';
+import { downtimeQuerySchema, downtimeReportSchema } from '#shared/schemas/kpi-ops.ts';
+
+// A hand-worked invented plant. Tree: RO1 (train) → RO1-S1 (stage) → V-101 (vessel); P-101 (pump) under RO1;
+// RO2 a second train. Window 1–8 May 2024, UTC.
+const t = (iso: string) => new Date(iso);
+const s = (iso: string, value: number): RunStatusSample => ({ time: t(iso), value });
+const window = { from: t('2024-05-01T00:00:00Z'), to: t('2024-05-08T00:00:00Z') };
+
+const tree: AssetNode[] = [
+  { code: 'RO1', parent: null },
+  { code: 'RO1-S1', parent: 'RO1' },
+  { code: 'V-101', parent: 'RO1-S1' },
+  { code: 'P-101', parent: 'RO1' },
+  { code: 'RO2', parent: null },
+];
+
+function wo(
+  woNumber: string,
+  asset: string,
+  type: DowntimeWorkOrder['type'],
+  oos: [string, string] | null,
+  failureCode: string | null = null,
+  status: DowntimeWorkOrder['status'] = 'closed',
+): DowntimeWorkOrder {
+  return {
+    woNumber,
+    asset,
+    type,
+    status,
+    failureCode,
+    outOfServiceFrom: oos ? t(oos[0]) : null,
+    outOfServiceTo: oos ? t(oos[1]) : null,
+  };
+}
+
+const workOrders: DowntimeWorkOrder[] = [
+  // Overlaps RO1's first stop (2 May 06:00–14:00) on a vessel below RO1: that stop is planned.
+  wo('PM-1', 'V-101', 'preventive', ['2024-05-02T05:00:00Z', '2024-05-02T15:00:00Z']),
+  // Both overlap RO1's second stop (4 May 00:00–03:00): CM-1 by 2 h (01:00–03:00), CM-2 by 1.5 h (00:00–01:30).
+  wo('CM-1', 'P-101', 'corrective', ['2024-05-04T01:00:00Z', '2024-05-04T05:00:00Z'], 'seal-leak'),
+  wo('CM-2', 'RO1-S1', 'corrective', ['2024-05-03T23:00:00Z', '2024-05-04T01:30:00Z'], 'element-damage'),
+  // Overlap RO1's third stop (7 May 20:00 – window end) but do not count: cancelled, or another train.
+  wo('CM-3', 'RO1', 'corrective', ['2024-05-07T19:00:00Z', '2024-05-07T23:00:00Z'], 'fouling', 'cancelled'),
+  wo('CM-4', 'RO2', 'corrective', ['2024-05-07T19:00:00Z', '2024-05-07T23:00:00Z'], 'motor-trip'),
+  wo('IN-1', 'RO2', 'inspection', ['2024-05-07T21:00:00Z', '2024-05-07T22:00:00Z']),
+  // No out-of-service window: never overlaps.
+  wo('PM-2', 'RO1', 'preventive', null),
+];
+
+const input: DowntimeInput = {
+  window,
+  assetTree: tree,
+  workOrders,
+  settings: { waterValuePerM3: 0.85 },
+  assets: [
+    {
+      asset: 'RO1',
+      ratedPermeateM3h: 50,
+      runStatusTag: 'RO1.RUN',
+      priorSample: s('2024-04-30T12:00:00Z', 1),
+      samples: [
+        s('2024-05-02T06:00:00Z', 0),
+        s('2024-05-02T14:00:00Z', 1),
+        s('2024-05-03T00:00:00Z', 1),
+        s('2024-05-04T00:00:00Z', 0),
+        s('2024-05-04T03:00:00Z', 1),
+        s('2024-05-07T20:00:00Z', 0),
+      ],
+    },
+    {
+      // No rated permeate flow; state unknown before its first sample at the window start.
+      asset: 'P-101',
+      ratedPermeateM3h: null,
+      runStatusTag: 'P101.RUN',
+      samples: [s('2024-05-01T00:00:00Z', 1), s('2024-05-04T00:30:00Z', 0), s('2024-05-04T04:30:00Z', 1)],
+    },
+  ],
+};
+
+describe('downtime report (hand-worked plant)', () => {
+  const report = downtimeReport(input);
+
+  it('finds each stop from run-status edges and classifies it', () => {
+    expect(report.events.map(({ asset, from, to, hours, planned, cause, lostVolumeM3 }) => ({ asset, from, to, hours, planned, cause, lostVolumeM3 }))).toEqual([
+      // Planned: PM-1 on V-101 (below RO1). No corrective overlap → unknown. 8 h × 50 m³/h = 400 m³.
+      { asset: 'RO1', from: '2024-05-02T06:00:00.000Z', to: '2024-05-02T14:00:00.000Z', hours: 8, planned: true, cause: 'unknown', lostVolumeM3: 400 },
+      // Unplanned; CM-1 overlaps 2 h > CM-2's 1.5 h → seal-leak. 3 h × 50 = 150 m³.
+      { asset: 'RO1', from: '2024-05-04T00:00:00.000Z', to: '2024-05-04T03:00:00.000Z', hours: 3, planned: false, cause: 'seal-leak', lostVolumeM3: 150 },
+      // P-101's scope is itself only: CM-1 (01:00–04:30 overlap 3.5 h) → seal-leak; no rated flow → null.
+      { asset: 'P-101', from: '2024-05-04T00:30:00.000Z', to: '2024-05-04T04:30:00.000Z', hours: 4, planned: false, cause: 'seal-leak', lostVolumeM3: null },
+      // Open at the window end: cut at 8 May 00:00 (4 h). CM-3 cancelled, CM-4/IN-1 on RO2 → unplanned, unknown.
+      { asset: 'RO1', from: '2024-05-07T20:00:00.000Z', to: '2024-05-08T00:00:00.000Z', hours: 4, planned: false, cause: 'unknown', lostVolumeM3: 200 },
+    ]);
+  });
+
+  it('keeps the provenance and flags of each event', () => {
+    const [first, second, pump, last] = report.events;
+    expect(first).toMatchObject({ plannedBy: ['PM-1'], causeWorkOrder: null, clippedAtStart: false, clippedAtEnd: false, tag: 'RO1.RUN', cost: 340 });
+    expect(second).toMatchObject({ plannedBy: [], causeWorkOrder: 'CM-1', causeOverlapHours: 2, cost: 127.5 });
+    expect(pump).toMatchObject({ causeWorkOrder: 'CM-1', causeOverlapHours: 3.5, cost: null, tag: 'P101.RUN' });
+    expect(last).toMatchObject({ clippedAtEnd: true, clippedAtStart: false, plannedBy: [], causeWorkOrder: null, cost: 170 });
+  });
+
+  it('totals each asset (keys of `kpi downtime --json`)', () => {
+    expect(report.totals.map(({ asset, events, hours, plannedHours, unplannedHours, lostVolumeM3, cost }) => ({ asset, events, hours, plannedHours, unplannedHours, lostVolumeM3, cost }))).toEqual([
+      // 8 + 3 + 4 = 15 h; 750 m³ × 0.85 = 637.5.
+      { asset: 'RO1', events: 3, hours: 15, plannedHours: 8, unplannedHours: 7, lostVolumeM3: 750, cost: 637.5 },
+      { asset: 'P-101', events: 1, hours: 4, plannedHours: 0, unplannedHours: 4, lostVolumeM3: null, cost: null },
+    ]);
+  });
+
+  it('builds the Pareto by cause, sorted descending with cumulative share', () => {
+    // unknown 8 + 4 = 12 h, seal-leak 3 + 4 = 7 h; of 19 h.
+    expect(report.paretoByCause).toEqual([
+      { key: 'unknown', events: 2, hours: 12, plannedHours: 8, unplannedHours: 4, lostVolumeM3: 600, cost: 510, share: 12 / 19, cumulativeShare: 12 / 19 },
+      { key: 'seal-leak', events: 2, hours: 7, plannedHours: 0, unplannedHours: 7, lostVolumeM3: null, cost: null, share: 7 / 19, cumulativeShare: 1 },
+    ]);
+  });
+
+  it('builds the Pareto by asset', () => {
+    expect(report.paretoByAsset.map((r) => [r.key, r.hours, r.share, r.cumulativeShare])).toEqual([
+      ['RO1', 15, 15 / 19, 15 / 19],
+      ['P-101', 4, 4 / 19, 1],
+    ]);
+  });
+
+  it('notes what it could not value and what it cut', () => {
+    expect(report.notes).toEqual([
+      'P-101 has no rated permeate flow: its lost volume and cost are null.',
+      'Some stops were still open at the window end: they are cut there (clippedAtEnd).',
+    ]);
+  });
+});
+
+describe('cause and classification rules', () => {
+  const base = (workOrders: DowntimeWorkOrder[]): DowntimeInput => ({
+    window: { from: t('2024-05-01T00:00:00Z'), to: t('2024-05-02T00:00:00Z') },
+    assetTree: tree,
+    workOrders,
+    settings: { waterValuePerM3: 1 },
+    assets: [
+      {
+        asset: 'RO1',
+        ratedPermeateM3h: 10,
+        runStatusTag: 'RO1.RUN',
+        priorSample: s('2024-04-30T00:00:00Z', 1),
+        samples: [s('2024-05-01T10:00:00Z', 0), s('2024-05-01T14:00:00Z', 1)],
+      },
+    ],
+  });
+  const only = (w: DowntimeWorkOrder[]) => downtimeReport(base(w)).events[0]!;
+
+  it.each([
+    ['an inspection on the train itself makes the stop planned', [wo('IN-9', 'RO1', 'inspection', ['2024-05-01T13:00:00Z', '2024-05-01T18:00:00Z'])], true],
+    ['a predictive order does not', [wo('PD-9', 'RO1', 'predictive', ['2024-05-01T09:00:00Z', '2024-05-01T15:00:00Z'])], false],
+    ['a window that only touches the stop does not overlap', [wo('PM-9', 'RO1', 'preventive', ['2024-05-01T14:00:00Z', '2024-05-01T16:00:00Z'])], false],
+    ['an order on another train is outside the scope (only the asset and below)', [wo('PM-9', 'RO2', 'preventive', ['2024-05-01T09:00:00Z', '2024-05-01T15:00:00Z'])], false],
+  ] as const)('%s', (_label, wos, planned) => {
+    expect(only([...wos]).planned).toBe(planned);
+  });
+
+  it('takes the corrective order with the largest overlap, then the earlier window, then the lower number', () => {
+    // A: 10:00–12:00 (2 h), B: 11:00–13:00 (2 h), C: 12:00–13:30 (1.5 h): A and B tie on overlap, A starts first.
+    const wos = [
+      wo('CM-B', 'V-101', 'corrective', ['2024-05-01T11:00:00Z', '2024-05-01T13:00:00Z'], 'b-code'),
+      wo('CM-C', 'RO1', 'corrective', ['2024-05-01T12:00:00Z', '2024-05-01T13:30:00Z'], 'c-code'),
+      wo('CM-A', 'P-101', 'corrective', ['2024-05-01T10:00:00Z', '2024-05-01T12:00:00Z'], 'a-code'),
+    ];
+    expect(only(wos)).toMatchObject({ cause: 'a-code', causeWorkOrder: 'CM-A', causeOverlapHours: 2 });
+    const sameStart = [
+      wo('CM-2', 'RO1', 'corrective', ['2024-05-01T10:00:00Z', '2024-05-01T12:00:00Z'], 'second'),
+      wo('CM-1', 'RO1', 'corrective', ['2024-05-01T10:00:00Z', '2024-05-01T12:00:00Z'], 'first'),
+    ];
+    expect(only(sameStart).cause).toBe('first');
+  });
+
+  it("gives 'unknown' when the best-overlapping corrective order has no failure code", () => {
+    const e = only([
+      wo('CM-1', 'RO1', 'corrective', ['2024-05-01T09:00:00Z', '2024-05-01T15:00:00Z'], '  '),
+      wo('CM-2', 'RO1', 'corrective', ['2024-05-01T13:00:00Z', '2024-05-01T15:00:00Z'], 'pump-trip'),
+    ]);
+    expect(e).toMatchObject({ cause: 'unknown', causeWorkOrder: 'CM-1', causeOverlapHours: 4 });
+  });
+
+  it('refuses a work order with only one out-of-service bound', () => {
+    const bad: DowntimeWorkOrder = { ...wo('PM-X', 'RO1', 'preventive', null), outOfServiceFrom: t('2024-05-01T00:00:00Z') };
+    expect(() => only([bad])).toThrow(/both be set or both be empty/);
+  });
+});
+
+describe('stop spans and edge cases', () => {
+  const day = { from: t('2024-05-01T00:00:00Z'), to: t('2024-05-02T00:00:00Z') };
+  const hours = (spans: ReturnType<typeof stopSpans>) => spans.map((x) => (x.toMs - x.fromMs) / 3_600_000);
+
+  it.each([
+    ['no samples', [], undefined, [], []],
+    ['running all day', [s('2024-05-01T00:00:00Z', 1)], undefined, [], []],
+    ['stopped all day (known from the prior sample): one event cut at both ends', [], s('2024-04-29T00:00:00Z', 0), [24], [[true, true]]],
+    ['stopped at the first sample with no prior: start hidden, flagged', [s('2024-05-01T06:00:00Z', 0), s('2024-05-01T09:00:00Z', 1)], undefined, [3], [[true, false]]],
+    ['an edge exactly at the window start after running: not clipped', [s('2024-05-01T00:00:00Z', 0), s('2024-05-01T02:00:00Z', 1)], s('2024-04-30T20:00:00Z', 1), [2], [[false, false]]],
+    ['two stops with a run between', [s('2024-05-01T01:00:00Z', 0), s('2024-05-01T02:00:00Z', 1), s('2024-05-01T05:00:00Z', 0), s('2024-05-01T07:30:00Z', 1)], s('2024-04-30T23:00:00Z', 1), [1, 2.5], [[false, false], [false, false]]],
+  ] as const)('%s', (_label, samples, prior, expectedHours, flags) => {
+    const spans = stopSpans(samples, day, prior);
+    expect(hours(spans)).toEqual(expectedHours);
+    expect(spans.map((x) => [x.clippedAtStart, x.clippedAtEnd])).toEqual(flags);
+  });
+
+  it('counts a stop across a daylight-saving change in real hours (Europe/Berlin spring-forward)', () => {
+    // Stopped 01:00 CET (00:00Z) to 04:00 CEST (02:00Z): the wall clock says 3 h, real time is 2 h.
+    const spans = stopSpans([s('2024-03-31T00:00:00Z', 0), s('2024-03-31T02:00:00Z', 1)], { from: t('2024-03-30T23:00:00Z'), to: t('2024-03-31T22:00:00Z') }, s('2024-03-30T22:00:00Z', 1));
+    expect(hours(spans)).toEqual([2]);
+  });
+
+  it('gives an asset without samples a zero totals row and a note; no assets gives empty tables', () => {
+    const report = downtimeReport({ ...input, assets: [{ asset: 'RO2', ratedPermeateM3h: 40, runStatusTag: 'RO2.RUN', samples: [] }] });
+    expect(report.events).toEqual([]);
+    expect(report.totals).toEqual([
+      { asset: 'RO2', events: 0, hours: 0, plannedHours: 0, unplannedHours: 0, lostVolumeM3: 0, cost: 0, tag: 'RO2.RUN', ratedPermeateM3h: 40 },
+    ]);
+    expect(report.paretoByCause).toEqual([]);
+    expect(report.paretoByAsset).toEqual([]);
+    expect(report.notes).toEqual(['RO2 (RO2.RUN) has no good run-status sample in the window: no stops counted.']);
+    const none = downtimeReport({ ...input, assets: [] });
+    expect(none.totals).toEqual([]);
+  });
+
+  it('makes every cost null, with a note, when no water value is set', () => {
+    const report = downtimeReport({ ...input, settings: { waterValuePerM3: null } });
+    expect(report.events.every((e) => e.cost === null)).toBe(true);
+    expect(report.totals[0]).toMatchObject({ lostVolumeM3: 750, cost: null });
+    expect(report.notes[0]).toBe('No water value per m³ is set: costs are null.');
+  });
+
+  it.each([
+    ['a negative rated flow', { ...input, assets: [{ ...input.assets[0]!, ratedPermeateM3h: -1 }] }, /rated permeate flow of RO1 must be a finite number ≥ 0/],
+    ['a negative water value', { ...input, settings: { waterValuePerM3: -0.1 } }, /waterValuePerM3/],
+    ['an asset listed twice', { ...input, assets: [input.assets[0]!, input.assets[0]!] }, /listed twice/],
+    ['a window that ends before it starts', { ...input, window: { from: window.to, to: window.from } }, /invalid-window/],
+    ['an out-of-service window ending before it starts', { ...input, workOrders: [wo('CM-9', 'RO1', 'corrective', ['2024-05-03T00:00:00Z', '2024-05-02T00:00:00Z'])] }, /ends before it starts/],
+  ] as const)('refuses %s', (_label, bad, message) => {
+    expect(() => downtimeReport(bad as DowntimeInput)).toThrow(message);
+  });
+});
+
+describe('asset scope', () => {
+  it('covers the asset and everything below it', () => {
+    expect([...assetScope(tree, 'RO1')].sort()).toEqual(['P-101', 'RO1', 'RO1-S1', 'V-101']);
+    expect([...assetScope(tree, 'RO1-S1')].sort()).toEqual(['RO1-S1', 'V-101']);
+    expect([...assetScope(tree, 'NEW-1')]).toEqual(['NEW-1']);
+  });
+
+  it('does not look upward: a preventive order on the train does not plan a stop of its stage', () => {
+    const stage = (workOrders: DowntimeWorkOrder[]) =>
+      downtimeReport({
+        window: { from: t('2024-05-01T00:00:00Z'), to: t('2024-05-02T00:00:00Z') },
+        assetTree: tree,
+        workOrders,
+        settings: { waterValuePerM3: 1 },
+        assets: [{ asset: 'RO1-S1', ratedPermeateM3h: 10, runStatusTag: 'S1.RUN', priorSample: s('2024-04-30T00:00:00Z', 1), samples: [s('2024-05-01T10:00:00Z', 0), s('2024-05-01T12:00:00Z', 1)] }],
+      }).events[0]!.planned;
+    expect(stage([wo('PM-T', 'RO1', 'preventive', ['2024-05-01T09:00:00Z', '2024-05-01T13:00:00Z'])])).toBe(false);
+    expect(stage([wo('PM-V', 'V-101', 'preventive', ['2024-05-01T09:00:00Z', '2024-05-01T13:00:00Z'])])).toBe(true);
+  });
+
+  it('refuses a cycle', () => {
+    expect(() => assetScope([{ code: 'A', parent: 'B' }, { code: 'B', parent: 'A' }], 'A')).toThrow(/cycle/);
+  });
+});
+
+describe('answer and query schemas', () => {
+  it('accepts the report, with the keys of `kpi downtime --json`', () => {
+    const parsed = downtimeReportSchema.parse(downtimeReport(input));
+    for (const key of ['asset', 'from', 'to', 'hours', 'planned', 'cause', 'lostVolumeM3']) expect(parsed.events[0]).toHaveProperty(key);
+    for (const key of ['asset', 'events', 'hours', 'plannedHours', 'unplannedHours', 'lostVolumeM3', 'cost']) expect(parsed.totals[0]).toHaveProperty(key);
+  });
+
+  it('parses the window query and refuses a bad date', () => {
+    expect(downtimeQuerySchema.parse({ site: 'PLANT', from: '2024-05-01', to: '2024-05-08T00:00:00+02:00' })).toMatchObject({ site: 'PLANT', from: '2024-05-01' });
+    expect(downtimeQuerySchema.safeParse({ from: '1 May' }).success).toBe(false);
+  });
+});
