@@ -35,7 +35,7 @@ const tsx = join(root, 'node_modules', '.bin', 'tsx');
 let status;
 switch (mode) {
   case 'start':
-    status = sh(tsx, [join(root, 'bin', 'cli.ts'), 'serve', '--first-run', ...process.argv.slice(3)]);
+    status = sh(join(root, 'bin', 'osmia'), ['serve', '--first-run', ...process.argv.slice(3)]);
     break;
   case 'test':
     status = sh(tsx, [join(root, 'tests', 'run.ts'), ...process.argv.slice(3)]);

@@ -4,6 +4,8 @@ import { registerServe } from './commands/serve.ts';
 import { registerUser } from './commands/user.ts';
 import { registerSeed } from './commands/seed.ts';
 import { registerImport } from './commands/import.ts';
+import { registerKpi } from './commands/kpi.ts';
+import { registerRefresh } from './commands/refresh.ts';
 import { CliError, exitState } from './run.ts';
 
 /** Exit codes: 0 ok, 1 error, 2 usage, 3 some rows rejected. */
@@ -18,6 +20,8 @@ export function buildProgram(): Command {
   registerServe(program);
   registerSeed(program);
   registerImport(program);
+  registerRefresh(program);
+  registerKpi(program);
   for (const command of program.commands) command.exitOverride();
   const recurse = (c: Command) => c.commands.forEach((s) => (s.exitOverride(), recurse(s)));
   recurse(program);
@@ -39,7 +43,7 @@ export async function main(argv: string[]): Promise<number> {
   }
 }
 
-if (import.meta.url === `file://${process.argv[1]}`) {
+export function run(): void {
   main(process.argv.slice(2)).then((code) => {
     process.exitCode = code;
   });

@@ -2,12 +2,12 @@
 // server/env.ts, the only code that reads process.env.
 import { randomBytes } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
-import { dirname, join, resolve } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { dirname, join } from 'node:path';
 import { projectClusterDir, startCluster } from '#server/db/cluster.ts';
+import { projectRoot } from '#server/paths.ts';
 import { loadEnv, type Env } from '#server/env.ts';
 
-export const projectRoot = resolve(dirname(fileURLToPath(import.meta.url)), '..');
+export { projectRoot };
 /** Git-ignored: the private cluster (or a pointer to it), the generated secret, demo files. */
 export const dataDir = join(projectRoot, '.osmia');
 

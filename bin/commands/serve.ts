@@ -5,7 +5,6 @@ import { closeDb, createDb } from '#server/db/client.ts';
 import { clusterStatus, stopCluster } from '#server/db/cluster.ts';
 import { migrateDb } from '#server/db/migrate.ts';
 import { demoUsers, seedDemoUsers } from '#server/demo/users.ts';
-import { startServer } from '#server/index.ts';
 import { projectRoot, resolveDatabase, serverEnv } from '../config.ts';
 import { stdio } from '../output.ts';
 import { action, CliError } from '../run.ts';
@@ -44,6 +43,8 @@ export function registerServe(program: Command) {
         } finally {
           await closeDb(db);
         }
+        // Loaded here so other commands do not load the whole web app at start.
+        const { startServer } = await import('#server/index.ts');
         const server = await startServer(env);
         stdio.out(`\nOsmia is running at ${server.url}  (database: ${target.source === 'env' ? 'DATABASE_URL' : 'private cluster'})`);
         if (opts.firstRun || seededUsers > 0) {

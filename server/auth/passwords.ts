@@ -8,5 +8,10 @@ export function verifyPassword(password: string, hash: string): Promise<boolean>
   return bcrypt.compare(password, hash);
 }
 
-// Compared against when the e-mail is unknown, so a wrong e-mail and a wrong password take as long.
-export const decoyHash = bcrypt.hashSync('osmia-decoy-password', 10);
+let decoy: string | undefined;
+
+/** Compared against when the e-mail is unknown, so a wrong e-mail and a wrong password take as long. */
+export function decoyHash(): string {
+  decoy ??= bcrypt.hashSync('osmia-decoy-password', 10);
+  return decoy;
+}

@@ -1,9 +1,10 @@
-import { fileURLToPath } from 'node:url';
+import { join } from 'node:path';
 import { drizzle } from 'drizzle-orm/node-postgres';
 import { migrate } from 'drizzle-orm/node-postgres/migrator';
+import { projectRoot } from '../paths.ts';
 import type { Db } from './client.ts';
 
-export const migrationsFolder = fileURLToPath(new URL('../../drizzle', import.meta.url));
+export const migrationsFolder = join(projectRoot, 'drizzle');
 const migrationLock = 7357001;
 
 /** Apply the committed migrations in drizzle/; idempotent, and a lock serialises concurrent starts. */

@@ -30,8 +30,14 @@ export class CsvSink {
   private rowCount = 0;
   private byteCount = 0;
   private readonly hash: Hash = createHash('sha256');
+  /** A write error (disk full, folder gone) is kept and thrown by the next flush or close. */
+  private failure: Error | null = null;
 
-  private constructor(private readonly stream: WriteStream) {}
+  private constructor(private readonly stream: WriteStream) {
+    stream.on('error', (error) => {
+      this.failure ??= error;
+    });
+  }
 
   static open(path: string, header: readonly string[]): CsvSink {
     const sink = new CsvSink(createWriteStream(path));
@@ -75,6 +81,7 @@ export class CsvSink {
     const buffers = this.pendingBuffers;
     this.pendingBuffers = [];
     for (const chunk of buffers) {
+      if (this.failure) throw this.failure;
       this.hash.update(chunk);
       this.byteCount += chunk.length;
       if (!this.stream.write(chunk)) await once(this.stream, 'drain');
@@ -83,6 +90,7 @@ export class CsvSink {
 
   async close(): Promise<WrittenFile> {
     await this.flush(true);
+    if (this.failure) throw this.failure;
     this.stream.end();
     await finished(this.stream);
     return { rows: this.rowCount, bytes: this.byteCount, sha256: this.hash.digest('hex') };

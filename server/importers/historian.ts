@@ -23,6 +23,8 @@ interface TagInfo {
   name: string;
   isStatus: boolean;
   convert: (v: number) => number;
+  /** This file's span of the tag, filled while reading. */
+  span?: Span;
 }
 
 interface Span {
@@ -38,21 +40,19 @@ const offsetPattern = /(Z|[+-]\d{2}(:?\d{2})?)$/i;
 
 /** Writes COPY text in chunks of about 256 kB, waiting when PostgreSQL is behind. */
 class CopyWriter {
-  private parts: string[] = [];
-  private size = 0;
+  // Appending to one string is cheaper in V8 than collecting parts and joining (measured).
+  private text = '';
   constructor(private readonly stream: Writable) {}
   push(line: string) {
-    this.parts.push(line);
-    this.size += line.length;
+    this.text += line;
   }
   async flushIfFull(): Promise<void> {
-    if (this.size >= 256 * 1024) await this.flush();
+    if (this.text.length >= 256 * 1024) await this.flush();
   }
   async flush(): Promise<void> {
-    if (this.size === 0) return;
-    const chunk = this.parts.join('');
-    this.parts = [];
-    this.size = 0;
+    if (this.text.length === 0) return;
+    const chunk = this.text;
+    this.text = '';
     if (!this.stream.write(chunk)) await new Promise<void>((resolve, reject) => {
       const onDrain = () => (this.stream.off('error', onError), resolve());
       const onError = (err: Error) => (this.stream.off('drain', onDrain), reject(err));
@@ -102,7 +102,7 @@ export async function importHistorian(ctx: KindContext): Promise<KindResult> {
 
   const copy = client.query(copyFrom('copy samples (tag_id, ts, value, quality) from stdin'));
   const writer = new CopyWriter(copy);
-  const spans = new Map<number, Span>();
+  const touched: TagInfo[] = [];
   let rowsRead = 0;
   let samples = 0;
   let lastTimeText = '';
@@ -139,8 +139,11 @@ export async function importHistorian(ctx: KindContext): Promise<KindResult> {
   const record = (tag: TagInfo, ts: string, value: number, quality: number) => {
     writer.push(`${tag.id}\t${ts}\t${value}\t${quality}\n`);
     samples++;
-    let span = spans.get(tag.id);
-    if (!span) spans.set(tag.id, (span = { from: lastTimeMs, to: lastTimeMs, rows: 0, last: -Infinity, ordered: true }));
+    let span = tag.span;
+    if (!span) {
+      span = tag.span = { from: lastTimeMs, to: lastTimeMs, rows: 0, last: -Infinity, ordered: true };
+      touched.push(tag);
+    }
     if (lastTimeMs <= span.last) span.ordered = false;
     span.last = lastTimeMs;
     if (lastTimeMs < span.from) span.from = lastTimeMs;
@@ -152,13 +155,10 @@ export async function importHistorian(ctx: KindContext): Promise<KindResult> {
     for await (const batch of source.batches) {
       for (const { line, cells } of batch) {
         rowsRead++;
-        if (cells.some((c) => c.length > maxFieldLength)) {
-          rejects.add(line, `a field is longer than ${maxFieldLength} characters (unterminated quote?)`);
-          continue;
-        }
         const ts = readTime(cells[iTime] ?? '');
         if (ts === undefined) {
-          rejects.add(line, time.read(cells[iTime] ?? '').ok ? 'bad timestamp' : (time.read(cells[iTime] ?? '') as { reason: string }).reason, cells);
+          const parsed = time.read(cells[iTime] ?? '');
+          rejects.add(line, parsed.ok ? 'bad timestamp' : parsed.reason, cells);
           continue;
         }
         if (long) {
@@ -168,6 +168,10 @@ export async function importHistorian(ctx: KindContext): Promise<KindResult> {
           }
           if (cells.length > columns.length) {
             rejects.add(line, `expected ${columns.length} columns, found ${cells.length} (a delimiter inside an unquoted value?)`, cells);
+            continue;
+          }
+          if (cells[iValue].length > maxFieldLength || cells[iTag].length > maxFieldLength) {
+            rejects.add(line, `a field is longer than ${maxFieldLength} characters (unterminated quote?)`);
             continue;
           }
           const tag = tags.get((cells[iTag] ?? '').trim().toLowerCase());
@@ -223,10 +227,11 @@ export async function importHistorian(ctx: KindContext): Promise<KindResult> {
     throw err;
   }
 
-  const tagSpans: TagSpan[] = [...spans].map(([tagId, s]) => ({ tagId, from: new Date(s.from), to: new Date(s.to), rows: s.rows }));
+  const tagSpans: TagSpan[] = touched.map(({ id, span }) => ({ tagId: id, from: new Date(span!.from), to: new Date(span!.to), rows: span!.rows }));
+  const ordered = new Map(touched.map((t) => [t.id, t.span!.ordered]));
   // Duplicates are possible only where a tag's span overlaps an earlier import or the file repeats itself.
   const overlapping = new Set(await tagsWithOverlap(client, tagSpans));
-  const suspects = tagSpans.filter((s) => overlapping.has(s.tagId) || !spans.get(s.tagId)!.ordered);
+  const suspects = tagSpans.filter((s) => overlapping.has(s.tagId) || !ordered.get(s.tagId));
   const removed = await deleteRepeatedSamples(client, await currentXid(client), suspects);
   let unchanged = 0;
   for (const span of tagSpans) {

@@ -37,6 +37,8 @@ export interface ImportOptions {
   dryRun?: boolean;
   actor: string;
   onProgress?: (p: { bytesRead: number; totalBytes: number; rowsRead: number }) => void;
+  /** Called once the import record exists (not in a dry run), with its id. */
+  onStart?: (importId: number) => void;
 }
 
 const importers: Record<ImportKind, (ctx: KindContext) => Promise<KindResult>> = {
@@ -154,7 +156,10 @@ export async function runImport(db: Db, opts: ImportOptions): Promise<ImportReco
   let result: KindResult = { rowsRead: 0, rowsInserted: 0, rowsUpdated: 0, rowsUnchanged: 0 };
   let finalSiteId = siteId;
   try {
-    if (!opts.dryRun) importId = await insertRunningImport(client, { siteId, kind: opts.kind, fileName, sha256, actor: opts.actor, options });
+    if (!opts.dryRun) {
+      importId = await insertRunningImport(client, { siteId, kind: opts.kind, fileName, sha256, actor: opts.actor, options });
+      opts.onStart?.(importId);
+    }
     await client.query('begin');
     try {
       let siteRow: SiteRow;

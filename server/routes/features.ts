@@ -1,5 +1,10 @@
 import type { AppDeps } from '../deps.ts';
+import { importRoutes } from './imports.ts';
+import { kpiRoutes } from './kpi.ts';
 import type { RouteRegistry } from './registry.ts';
 
-/** Routers of the feature issues (imports, KPIs, reports) register here, in one list. */
-export function registerFeatureRoutes(_r: RouteRegistry, _deps: AppDeps): void {}
+/** Routers of the product's features, registered in one list. */
+export function registerFeatureRoutes(r: RouteRegistry, deps: AppDeps): void {
+  importRoutes(r, deps);
+  kpiRoutes(r, deps);
+}

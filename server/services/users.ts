@@ -38,7 +38,7 @@ export async function changeUser(db: Db, id: number, body: UserUpdateBody, cost:
 /** Check e-mail and password; the same time is spent whether or not the e-mail exists. */
 export async function signIn(db: Db, email: string, password: string): Promise<User> {
   const found = await findUserWithHash(db, email);
-  const ok = await verifyPassword(password, found?.passwordHash ?? decoyHash);
+  const ok = await verifyPassword(password, found?.passwordHash ?? decoyHash());
   if (!found || !ok) throw new HttpError(401, 'invalid-credentials');
   if (found.disabled) throw new HttpError(401, 'account-disabled');
   await touchLastLogin(db, found.id);

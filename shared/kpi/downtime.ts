@@ -28,6 +28,12 @@ export interface DowntimeAssetInput {
   samples: readonly RunStatusSample[];
   /** The last good sample before the window, if any: it gives the state at the window start. */
   priorSample?: RunStatusSample | null;
+  /**
+   * Where the asset's run-status data ends (its last good sample), when that is before the window end: a stop
+   * still open there is cut at it (`clippedAtEnd`) instead of being carried to the window end, since the state
+   * after the last sample is not known. Default: the window end.
+   */
+  dataUntil?: Date | null;
 }
 
 /** One node of the asset tree (for "the asset or one below it"). */
@@ -293,6 +299,14 @@ export function paretoTable(events: readonly DowntimeEvent[], keyOf: (e: Downtim
   return rows;
 }
 
+/** The window cut at `dataUntil` when that falls inside it (never before the window start). */
+function windowUntil(window: TimeWindow, dataUntil: Date | null): TimeWindow {
+  if (dataUntil === null) return window;
+  const untilMs = instantMs(dataUntil, 'dataUntil');
+  if (untilMs >= window.to.getTime()) return window;
+  return { from: window.from, to: new Date(Math.max(untilMs, window.from.getTime())) };
+}
+
 function sum(values: readonly number[]): number {
   return values.reduce((acc, v) => acc + v, 0);
 }
@@ -313,7 +327,8 @@ function sumOrNull(values: readonly (number | null)[]): number | null {
  *
  * Source: DESIGN §6 (downtime) and §7 (`kpi downtime --json` keys). Stops are real elapsed time (UTC).
  * Degenerate input: no assets → no events, no totals; an asset without samples → a zero totals row and a
- * note; no rated flow → lost volume and cost null (noted); no water value → cost null (noted).
+ * note; no rated flow → lost volume and cost null (noted); no water value → cost null (noted). An asset whose
+ * `dataUntil` falls inside the window has its stops cut there (noted): the state after its last sample is unknown.
  */
 export function downtimeReport(input: DowntimeInput): DowntimeResult {
   windowMs(input.window);
@@ -337,8 +352,12 @@ export function downtimeReport(input: DowntimeInput): DowntimeResult {
       notes.push(`${asset.asset} (${asset.runStatusTag}) has no good run-status sample in the window: no stops counted.`);
     }
     const scope = assetScope(input.assetTree, asset.asset);
+    const assetWindow = windowUntil(input.window, asset.dataUntil ?? null);
+    if (assetWindow.to < input.window.to) {
+      notes.push(`${asset.asset} (${asset.runStatusTag}) has run-status data only until ${assetWindow.to.toISOString()}: stops are cut there.`);
+    }
     const assetEvents: DowntimeEvent[] = [];
-    for (const stop of stopSpans(asset.samples, input.window, asset.priorSample)) {
+    for (const stop of stopSpans(asset.samples, assetWindow, asset.priorSample)) {
       const hours = hoursBetween(stop.fromMs, stop.toMs);
       const c = classifyStop(stop, scope, workOrders);
       const lostVolumeM3 = asset.ratedPermeateM3h === null ? null : hours * asset.ratedPermeateM3h;

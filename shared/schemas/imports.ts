@@ -31,8 +31,6 @@ export const importRecordSchema = z.object({
 });
 export type ImportRecord = z.infer<typeof importRecordSchema>;
 
-export const importListSchema = z.object({ imports: z.array(importRecordSchema.omit({ rejects: true })) });
-export type ImportList = z.infer<typeof importListSchema>;
 
 export const importListQuerySchema = z.object({
   kind: importKindSchema.optional(),
@@ -95,3 +93,14 @@ export const optionalColumns: Record<string, readonly string[]> = {
   'job-steps': ['technician', 'guided'],
   historian: ['quality'],
 };
+
+export const importProgressSchema = z.object({ bytesRead: z.number(), totalBytes: z.number(), rowsRead: z.number() }).nullable();
+
+/** GET /api/imports: the history, newest first; a running import carries its progress. */
+export const importHistorySchema = z.object({
+  imports: z.array(importRecordSchema.omit({ rejects: true }).extend({ progress: importProgressSchema })),
+});
+export type ImportHistory = z.infer<typeof importHistorySchema>;
+
+export const importDetailSchema = importRecordSchema.extend({ progress: importProgressSchema });
+export type ImportDetail = z.infer<typeof importDetailSchema>;

@@ -1,6 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
 import type { ReactNode } from 'react';
-import { Link, Navigate, redirect } from 'react-router-dom';
+import { Link, redirect } from 'react-router-dom';
 import type { User } from '#shared/schemas/users.ts';
 import { canOpen, pageById, type PageId } from '../config/navigation.ts';
 import { roleLabels } from '../config/roles.ts';
@@ -64,8 +64,8 @@ export function ForbiddenPanel({ page, user }: { page: PageId; user: User }) {
 /** Renders the page for the roles of the navigation table, and the refusal panel for the others. */
 export function RequirePage({ page, children }: { page: PageId; children: (user: User) => ReactNode }) {
   const user = useMe();
-  // The shell's loader signed the person in; the session can still end while the page is open.
-  if (!user) return <Navigate to="/sign-in" replace />;
+  // Pages render inside the app shell, which sends a person without a session to sign in.
+  if (!user) return null;
   if (!canOpen(user.role, page)) return <ForbiddenPanel page={page} user={user} />;
   return children(user);
 }

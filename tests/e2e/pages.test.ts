@@ -235,10 +235,28 @@ describe('the built client in a browser', () => {
     await signIn(s, 'manager', '/settings');
     await heading(s.page, 'Settings');
     expect(new URL(s.page.url()).pathname).toBe('/settings');
+    expect(await s.page.title()).toBe('Settings · Osmia');
     await s.page.getByRole('button', { name: 'Sign out' }).click();
-    await s.page.waitForURL((url) => url.pathname === '/sign-in');
+    await heading(s.page, 'Sign in');
+    expect(new URL(s.page.url()).pathname).toBe('/sign-in');
+    expect(new URL(s.page.url()).searchParams.get('redirectTo')).toBeNull();
     await s.page.goto(`${base}/settings`);
     await s.page.waitForURL((url) => url.pathname === '/sign-in' && url.searchParams.get('redirectTo') === '/settings');
+    await closeSession(s);
+  });
+
+  it('sends someone whose session ended while the app was open to sign in, and back', async () => {
+    const s = await openSession();
+    s.expectFailures({ status: 401, path: '/api/settings' });
+    await signIn(s, 'engineer');
+    await heading(s.page, 'Dashboard');
+    // The session cookie goes away (as when it expires); the next request is answered 401.
+    await s.context.clearCookies();
+    await s.page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Settings' }).click();
+    await s.page.waitForURL((url) => url.pathname === '/sign-in' && url.searchParams.get('redirectTo') === '/settings');
+    await fillSignIn(s.page, 'engineer@test.example', rolePasswords.engineer);
+    await heading(s.page, 'Settings');
+    await s.page.getByText('Only an administrator can change these settings.').waitFor();
     await closeSession(s);
   });
 

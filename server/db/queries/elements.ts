@@ -34,3 +34,30 @@ export async function upsertElements(q: Queryable, siteId: number, importId: num
     );
   }
 }
+
+/** One element install with its place: what element-life and forecast read. */
+export interface ElementInstall extends ElementValues {
+  id: number;
+}
+
+/**
+ * The installs of elements in the given vessels that were installed before `installedBefore`
+ * (every install when null), ordered by serial and install time so answers are stable.
+ */
+export async function listElementInstalls(
+  q: Queryable,
+  siteId: number,
+  vesselIds: readonly number[],
+  installedBefore: Date | null,
+): Promise<ElementInstall[]> {
+  if (vesselIds.length === 0) return [];
+  const { rows } = await q.query<ElementInstall>(
+    `select id, serial, model, vessel_id as "vesselId", position, installed_at as "installedAt",
+            removed_at as "removedAt", removal_reason as "removalReason"
+     from elements
+     where site_id = $1 and vessel_id = any($2::int[]) and ($3::timestamptz is null or installed_at < $3)
+     order by serial, installed_at`,
+    [siteId, vesselIds, installedBefore],
+  );
+  return rows;
+}

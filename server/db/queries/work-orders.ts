@@ -70,3 +70,28 @@ export async function upsertWorkOrders(q: Queryable, siteId: number, importId: n
     );
   }
 }
+
+/**
+ * Work orders on the given assets that matter to a window [from, to): reported before `to` and not
+ * completed before `from` (every order raised, worked, completed or still open in the window).
+ */
+export async function listWorkOrdersOpenDuring(
+  q: Queryable,
+  siteId: number,
+  assetIds: readonly number[],
+  from: Date,
+  to: Date,
+): Promise<(WorkOrderValues & { id: number })[]> {
+  if (assetIds.length === 0) return [];
+  const { rows } = await q.query<WorkOrderValues & { id: number }>(
+    `select id, wo_number as "woNumber", asset_id as "assetId", type, priority, status, failure_code as "failureCode",
+            description, reported_at as "reportedAt", started_at as "startedAt", completed_at as "completedAt",
+            out_of_service_from as "outOfServiceFrom", out_of_service_to as "outOfServiceTo",
+            labour_hours as "labourHours", labour_cost as "labourCost", parts_cost as "partsCost", crew
+     from work_orders
+     where site_id = $1 and asset_id = any($2::int[]) and reported_at < $4 and (completed_at is null or completed_at >= $3)
+     order by wo_number`,
+    [siteId, assetIds, from, to],
+  );
+  return rows;
+}

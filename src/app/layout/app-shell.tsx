@@ -1,4 +1,4 @@
-import { Navigate, Outlet, useNavigation } from 'react-router-dom';
+import { Navigate, Outlet, useLocation, useNavigation } from 'react-router-dom';
 import { useMe } from '../../features/auth/api/get-me.ts';
 import { SideNav } from './side-nav.tsx';
 import { TopBar } from './top-bar.tsx';
@@ -7,7 +7,13 @@ import { TopBar } from './top-bar.tsx';
 export function AppShell() {
   const user = useMe();
   const navigation = useNavigation();
-  if (!user) return <Navigate to="/sign-in" replace />;
+  const location = useLocation();
+  // The session ended while the app was open (expired, account disabled): sign in and come back.
+  // During a navigation (signing out goes to /sign-in itself) wait for it instead of racing it.
+  if (!user) {
+    if (navigation.state !== 'idle') return null;
+    return <Navigate to={`/sign-in?redirectTo=${encodeURIComponent(location.pathname + location.search)}`} replace />;
+  }
   return (
     <div className="flex min-h-screen flex-col">
       <a

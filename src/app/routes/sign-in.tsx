@@ -1,17 +1,23 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { redirect, useNavigate, useSearchParams } from 'react-router-dom';
 import { Card } from '../../components/ui/card.tsx';
-import { meQueryOptions } from '../../features/auth/api/get-me.ts';
+import { authKeys, meQueryOptions } from '../../features/auth/api/get-me.ts';
 import { SignInForm } from '../../features/auth/components/sign-in-form.tsx';
 import { safeRedirect } from '../guard.tsx';
 import { OsmiaWordmark } from '../layout/osmia-mark.tsx';
 
-/** Someone already signed in goes straight on to where they were headed. */
+/**
+ * Someone signed in goes straight on to where they were headed; without a session, whatever the last
+ * user loaded is dropped. A cached user is asked about afresh (they may have just signed out); a
+ * cached "no session" was learnt a moment ago, on the way here.
+ */
 export const createSignInLoader =
   (queryClient: QueryClient) =>
   async ({ request }: { request: Request }) => {
-    const user = await queryClient.ensureQueryData(meQueryOptions);
+    const known = queryClient.getQueryData(meQueryOptions.queryKey);
+    const user = known === null ? null : await queryClient.fetchQuery({ ...meQueryOptions, staleTime: 0 });
     if (user) throw redirect(safeRedirect(new URL(request.url).searchParams.get('redirectTo')));
+    queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== authKeys.all[0] });
     return null;
   };
 
@@ -24,7 +30,7 @@ export function SignInRoute() {
       <title>Sign in · Osmia</title>
       <div className="w-full max-w-sm">
         <div className="mb-6 flex flex-col items-center gap-2 text-center">
-          <OsmiaWordmark className="[&_span]:text-2xl" />
+          <OsmiaWordmark size="lg" />
           <p className="text-sm text-basin-600">Maintenance KPIs for membrane water treatment</p>
         </div>
         <Card>

@@ -8,7 +8,7 @@ export type ButtonSize = 'sm' | 'md';
 const variants: Record<ButtonVariant, string> = {
   primary: 'bg-tide-700 text-white hover:bg-tide-800 active:bg-tide-900 disabled:bg-basin-300 disabled:text-basin-700',
   secondary:
-    'border border-basin-300 bg-white text-basin-900 hover:bg-basin-100 active:bg-basin-200 disabled:text-basin-500 disabled:hover:bg-white',
+    'border border-basin-400 bg-white text-basin-900 hover:bg-basin-100 active:bg-basin-200 disabled:text-basin-500 disabled:hover:bg-white',
   danger: 'bg-ember-700 text-white hover:bg-ember-800 disabled:bg-basin-300 disabled:text-basin-700',
   ghost: 'text-tide-700 hover:bg-tide-50 active:bg-tide-100 disabled:text-basin-500 disabled:hover:bg-transparent',
 };

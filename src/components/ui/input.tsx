@@ -28,7 +28,7 @@ export function Input({ label, hideLabel = false, hint, error, unit, className, 
         <div
           className={cn(
             'flex items-stretch overflow-hidden rounded-md border bg-white focus-within:outline-2 focus-within:outline-offset-2 focus-within:outline-tide-600',
-            error ? 'border-ember-600' : 'border-basin-300',
+            error ? 'border-ember-600' : 'border-basin-400',
           )}
         >
           <input
@@ -47,7 +47,7 @@ export function Input({ label, hideLabel = false, hint, error, unit, className, 
           id={id}
           aria-invalid={error ? true : undefined}
           aria-describedby={describedBy}
-          className={cn(fieldClass, 'border py-2', error ? 'border-ember-600' : 'border-basin-300')}
+          className={cn(fieldClass, 'border py-2', error ? 'border-ember-600' : 'border-basin-400')}
           {...rest}
         />
       )}

@@ -37,7 +37,7 @@ export function Select({ label, hideLabel = false, options, hint, error, compact
             fieldClass,
             'appearance-none border pr-9',
             compact ? 'py-1' : 'py-2',
-            error ? 'border-ember-600' : 'border-basin-300',
+            error ? 'border-ember-600' : 'border-basin-400',
           )}
           {...rest}
         >

@@ -23,7 +23,7 @@ export function TextArea({ label, hint, error, className, rows = 4, ...rest }: T
         rows={rows}
         aria-invalid={error ? true : undefined}
         aria-describedby={describedBy}
-        className={cn(fieldClass, 'border py-2', error ? 'border-ember-600' : 'border-basin-300')}
+        className={cn(fieldClass, 'border py-2', error ? 'border-ember-600' : 'border-basin-400')}
         {...rest}
       />
       {hint && (

@@ -1,4 +1,5 @@
 import type { TestApp } from '../../setup/app.ts';
+import { importText } from '../importers/helpers.ts';
 
 /** One valid request per route, used by the route × role table. */
 export interface Fixture {
@@ -16,6 +17,7 @@ let counter = 0;
 export async function accessFixtures(t: TestApp): Promise<Record<string, Fixture>> {
   const users = await t.db.query.users.findMany();
   const manager = users.find((u) => u.role === 'manager')!;
+  const record = await importText(t.db, 'assets', 'code,name,kind,parent,rated_permeate_m3h,element_capacity,rack_row,rack_col\nT1,Train,train,,10,,,\nbad,,,,,,,\n', { site: 'ACC' });
   return {
     'GET /api/health': { method: 'get', url: '/api/health' },
     'GET /api/openapi.json': { method: 'get', url: '/api/openapi.json' },
@@ -35,5 +37,18 @@ export async function accessFixtures(t: TestApp): Promise<Record<string, Fixture
     'PATCH /api/users/:id': { method: 'patch', url: `/api/users/${manager.id}`, body: { name: 'Manager' } },
     'GET /api/settings': { method: 'get', url: '/api/settings' },
     'PUT /api/settings': { method: 'put', url: '/api/settings', body: { currency: 'EUR' } },
+    'POST /api/imports': {
+      method: 'post',
+      url: '/api/imports',
+      build: () => ({
+        method: 'post',
+        url: '/api/imports',
+        fields: { kind: 'assets', site: 'ACC' },
+        attach: { name: `assets-${++counter}.csv`, content: `code,name,kind,parent,rated_permeate_m3h,element_capacity,rack_row,rack_col\nP${counter},Pump,pump,T1,,,,\n` },
+      }),
+    },
+    'GET /api/imports': { method: 'get', url: '/api/imports' },
+    'GET /api/imports/:id': { method: 'get', url: `/api/imports/${record.id}` },
+    'GET /api/imports/:id/rejects.csv': { method: 'get', url: `/api/imports/${record.id}/rejects.csv` },
   };
 }

@@ -289,3 +289,27 @@ describe('answer and query schemas', () => {
     expect(downtimeQuerySchema.safeParse({ from: '1 May' }).success).toBe(false);
   });
 });
+
+describe('data ending inside the window', () => {
+  // Hand-worked: stopped from 20:00 with no later sample; data ends at 22:00, window at midnight → 2 h, not 4 h.
+  const report = (dataUntil: Date | null) =>
+    downtimeReport({
+      window: { from: t('2024-05-01T00:00:00Z'), to: t('2024-05-02T00:00:00Z') },
+      assetTree: tree,
+      workOrders: [],
+      settings: { waterValuePerM3: 1 },
+      assets: [{ asset: 'RO1', ratedPermeateM3h: 10, runStatusTag: 'RO1.RUN', dataUntil, samples: [s('2024-05-01T00:00:00Z', 1), s('2024-05-01T20:00:00Z', 0)] }],
+    });
+
+  it('cuts a stop still open at the end of the data there, not at the window end', () => {
+    const cut = report(t('2024-05-01T22:00:00Z'));
+    expect(cut.events).toHaveLength(1);
+    expect(cut.events[0]).toMatchObject({ from: '2024-05-01T20:00:00.000Z', to: '2024-05-01T22:00:00.000Z', hours: 2, clippedAtEnd: true });
+    expect(cut.notes.join(' ')).toMatch(/only until 2024-05-01T22:00:00.000Z/);
+  });
+
+  it('changes nothing when the data reaches the window end, or when dataUntil is not given', () => {
+    expect(report(t('2024-05-03T00:00:00Z')).events[0]!.hours).toBe(4);
+    expect(report(null).events[0]!.hours).toBe(4);
+  });
+});

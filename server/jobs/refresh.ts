@@ -1,0 +1,52 @@
+import type { Db } from '../db/client.ts';
+import { claimDirtyRanges, markAllDirty, rebuildHourly, rebuildStops, runStatusTags } from '../db/queries/derived.ts';
+
+export interface RefreshResult {
+  full: boolean;
+  tags: number;
+  hoursRebuilt: number;
+  stopsRebuilt: number;
+  durationMs: number;
+}
+
+/**
+ * Rebuild what is derived from samples (hourly rollups, stop events) for the hours imports touched
+ * since the last refresh; with `full`, for all data. One transaction: a crash leaves the claimed
+ * ranges queued for the next run, and a second worker skips what the first has claimed.
+ */
+export async function refresh(db: Db, options: { full?: boolean; log?: (line: string) => void } = {}): Promise<RefreshResult> {
+  const t0 = Date.now();
+  const client = await db.$client.connect();
+  let tags = 0;
+  let hoursRebuilt = 0;
+  let stopsRebuilt = 0;
+  try {
+    await client.query('begin');
+    if (options.full) await markAllDirty(client);
+    const runTags = await runStatusTags(client);
+    const ranges = await claimDirtyRanges(client);
+    // Tags imported together share a range: rebuild them in one pass over that range.
+    const byRange = new Map<string, { from: Date; to: Date; tagIds: number[] }>();
+    for (const r of ranges) {
+      const key = `${r.from.toISOString()}/${r.to.toISOString()}`;
+      (byRange.get(key) ?? byRange.set(key, { from: r.from, to: r.to, tagIds: [] }).get(key)!).tagIds.push(r.tagId);
+    }
+    for (const { from, to, tagIds } of byRange.values()) {
+      hoursRebuilt += await rebuildHourly(client, tagIds, from, to);
+      for (const id of tagIds) {
+        const run = runTags.get(id);
+        if (run) stopsRebuilt += await rebuildStops(client, run, from, to);
+      }
+      tags += tagIds.length;
+    }
+    await client.query('commit');
+  } catch (err) {
+    await client.query('rollback').catch(() => undefined);
+    throw err;
+  } finally {
+    client.release();
+  }
+  const result = { full: Boolean(options.full), tags, hoursRebuilt, stopsRebuilt, durationMs: Date.now() - t0 };
+  options.log?.(`refresh: ${tags} tags, ${hoursRebuilt} hourly rollups, ${stopsRebuilt} stops in ${(result.durationMs / 1000).toFixed(1)} s`);
+  return result;
+}

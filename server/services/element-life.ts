@@ -1,0 +1,267 @@
+// Element life: which installs of which vessels, observed over which window, grouped how — then the
+// survival maths of shared/kpi/element-life.ts on plain arrays of lives in days.
+import {
+  fitWeibull,
+  kaplanMeier,
+  weibullLifeStats,
+  weibullMedianRankRegression,
+  type WeibullFit,
+} from '#shared/kpi/element-life.ts';
+import { lifeEndingReasons } from '#shared/schemas/enums.ts';
+import type {
+  ElementLifeQuery,
+  ElementLifeReport,
+  NullReason,
+  Provenance,
+} from '#shared/schemas/kpi.ts';
+import type { Db } from '../db/client.ts';
+import type { AssetRecord } from '../db/queries/assets.ts';
+import { listElementInstalls, type ElementInstall } from '../db/queries/elements.ts';
+import { ancestry, resolveScope, type KpiScope } from './scope.ts';
+
+const DAY_MS = 86_400_000;
+
+/** Serial numbers listed in provenance at most; the full count is given beside them. */
+export const provenanceSerialCap = 500;
+
+export type ElementGroupBy = ElementLifeQuery['groupBy'];
+type ElementLifeGroup = ElementLifeReport['groups'][number];
+type WeibullOut = NonNullable<ElementLifeGroup['weibull']>;
+
+/** Where a vessel sits: its own code and the codes of the stage and train above it. */
+export interface VesselPlace {
+  vessel: string;
+  stage: string | null;
+  train: string | null;
+}
+
+/** One element life as the survival maths sees it. */
+export interface ElementLifeObservation {
+  serial: string;
+  install: ElementInstall;
+  key: string;
+  /** Days from installation to removal, or to the window end when it was still in service then. */
+  days: number;
+  /** true when the removal reason ends a life (failed, performance, damaged). */
+  event: boolean;
+}
+
+/** The vessels of the scope (the asset and everything below it, or the site) with their ancestry. */
+export function vesselPlaces(scope: Pick<KpiScope, 'assets' | 'inScope'>): Map<number, VesselPlace> {
+  const places = new Map<number, VesselPlace>();
+  for (const vessel of scope.inScope) {
+    if (vessel.kind !== 'vessel') continue;
+    const above = ancestry(scope.assets, vessel);
+    const first = (kind: AssetRecord['kind']) => above.find((a) => a.kind === kind)?.code ?? null;
+    places.set(vessel.id, { vessel: vessel.code, stage: first('stage'), train: first('train') });
+  }
+  return places;
+}
+
+/**
+ * Group key of an element (DESIGN §6): `all`, `train=T1`, `stage=T1-S1`, `position=1`, `model=…`.
+ * A vessel with no stage or train above it falls in `stage=(none)` / `train=(none)`.
+ */
+export function elementGroupKey(groupBy: ElementGroupBy, install: ElementInstall, place: VesselPlace): string {
+  switch (groupBy) {
+    case 'all':
+      return 'all';
+    case 'train':
+      return `train=${place.train ?? '(none)'}`;
+    case 'stage':
+      return `stage=${place.stage ?? '(none)'}`;
+    case 'position':
+      return `position=${install.position}`;
+    case 'model':
+      return `model=${install.model}`;
+  }
+}
+
+/** 'all' first, then positions in number order, other keys in text order. */
+export function compareGroupKeys(a: string, b: string): number {
+  const pa = /^position=(\d+)$/.exec(a);
+  const pb = /^position=(\d+)$/.exec(b);
+  if (pa && pb) return Number(pa[1]) - Number(pb[1]);
+  if (a === 'all' || b === 'all') return a === 'all' ? (b === 'all' ? 0 : -1) : 1;
+  return a < b ? -1 : a > b ? 1 : 0;
+}
+
+/**
+ * The lives the window lets us observe. Rule: the installs made in [from, to) — a cohort by
+ * installation date — each followed until its removal or until `to`, whichever comes first.
+ * A removal at or after `to` has not happened yet as far as the window knows: that life is censored
+ * at `to`, as is one still in service. A removal before `to` is a life-ending event when its reason
+ * is failed, performance or damaged, and a censoring (planned, relocated, sampled, none) otherwise.
+ * Why a cohort rather than "every life that touches the window": keeping only lives still running at
+ * `from` would drop the short ones that ended before it (a bias towards long lives) unless the fit
+ * allowed for delayed entry, which the shared fit does not. A null `from` is open.
+ */
+export function observeLives(
+  installs: readonly ElementInstall[],
+  places: ReadonlyMap<number, VesselPlace>,
+  groupBy: ElementGroupBy,
+  from: Date | null,
+  to: Date,
+): ElementLifeObservation[] {
+  const lifeEnding = new Set<string>(lifeEndingReasons);
+  const out: ElementLifeObservation[] = [];
+  for (const install of installs) {
+    const place = places.get(install.vesselId);
+    if (!place) continue;
+    if (install.installedAt >= to || (from !== null && install.installedAt < from)) continue;
+    const removedInWindow = install.removedAt !== null && install.removedAt < to;
+    const end = removedInWindow ? install.removedAt! : to;
+    out.push({
+      serial: install.serial,
+      install,
+      key: elementGroupKey(groupBy, install, place),
+      days: (end.getTime() - install.installedAt.getTime()) / DAY_MS,
+      event: removedInWindow && install.removalReason !== null && lifeEnding.has(install.removalReason),
+    });
+  }
+  return out;
+}
+
+/** Lives grouped by key, groups in key order; with groupBy all, the `all` group is always there. */
+export function groupLives(lives: readonly ElementLifeObservation[], groupBy: ElementGroupBy): Map<string, ElementLifeObservation[]> {
+  const groups = new Map<string, ElementLifeObservation[]>();
+  if (groupBy === 'all') groups.set('all', []);
+  for (const life of lives) (groups.get(life.key) ?? groups.set(life.key, []).get(life.key)!).push(life);
+  return new Map([...groups].sort(([a], [b]) => compareGroupKeys(a, b)));
+}
+
+/** The fit in the answer's units and names (days). */
+export function weibullOut(fit: WeibullFit): WeibullOut {
+  return {
+    shape: fit.shape,
+    scaleDays: fit.scale,
+    shapeLower: fit.shapeLower,
+    shapeUpper: fit.shapeUpper,
+    scaleLowerDays: fit.scaleLower,
+    scaleUpperDays: fit.scaleUpper,
+    logLik: fit.logLik,
+    intervalMethod: fit.intervalMethod,
+  };
+}
+
+/** Serial numbers for provenance: distinct, sorted, at most `provenanceSerialCap`, with the count. */
+export function serialProvenance(serials: readonly string[]): { elements: string[]; elementCount: number } {
+  const distinct = [...new Set(serials)].sort();
+  return { elements: distinct.slice(0, provenanceSerialCap), elementCount: distinct.length };
+}
+
+function finiteOrNull(x: number): number | null {
+  return Number.isFinite(x) ? x : null;
+}
+
+/** Survival figures of one group of lives (days). */
+export function elementLifeGroup(key: string, lives: readonly ElementLifeObservation[], confidence: number): ElementLifeGroup {
+  const times = lives.map((l) => l.days);
+  const events = lives.map((l) => l.event);
+  const reasons: Record<string, NullReason> = {};
+  const km = kaplanMeier(times, events, confidence);
+  const result = fitWeibull(times, events, { confidence });
+  let weibull: ElementLifeGroup['weibull'] = null;
+  let b10Days: number | null = null;
+  let medianDays: number | null = null;
+  let meanDays: number | null = null;
+  if (result.fit === null) {
+    for (const k of ['weibull', 'b10Days', 'medianDays', 'meanDays']) reasons[k] = result.reason;
+  } else {
+    weibull = weibullOut(result.fit);
+    if (result.fit.upperReason) reasons['weibull'] = result.fit.upperReason;
+    const stats = weibullLifeStats(result.fit);
+    // Γ(1 + 1/β) overflows a double for a shape below about 0.006: the mean is then beyond reach.
+    b10Days = finiteOrNull(stats.b10);
+    medianDays = finiteOrNull(stats.median);
+    meanDays = finiteOrNull(stats.mean);
+    if (b10Days === null) reasons['b10Days'] = 'unbounded';
+    if (medianDays === null) reasons['medianDays'] = 'unbounded';
+    if (meanDays === null) reasons['meanDays'] = 'unbounded';
+  }
+  if (km.median === null) reasons['kmMedianDays'] = km.reason ?? 'not-reached';
+  if (km.medianLower === null) reasons['kmMedianLowerDays'] = km.rows.length === 0 ? 'no-data' : 'not-reached';
+  if (km.medianUpper === null) reasons['kmMedianUpperDays'] = km.rows.length === 0 ? 'no-data' : 'not-reached';
+  const mrr = weibullMedianRankRegression(times, events);
+  let medianRankRegression: ElementLifeGroup['medianRankRegression'] = null;
+  if (mrr.fit === null) reasons['medianRankRegression'] = mrr.reason;
+  else if (mrr.fit.yOnX.shape > 0 && mrr.fit.xOnY.shape > 0) {
+    medianRankRegression = {
+      yOnX: { shape: mrr.fit.yOnX.shape, scaleDays: mrr.fit.yOnX.scale },
+      xOnY: { shape: mrr.fit.xOnY.shape, scaleDays: mrr.fit.xOnY.scale },
+      // A perfect line can come out as 1 + 1e-16 in floating point.
+      correlation: Math.max(-1, Math.min(1, mrr.fit.correlation)),
+    };
+  } else reasons['medianRankRegression'] = 'too-few-events';
+  return {
+    key,
+    n: lives.length,
+    events: events.filter(Boolean).length,
+    weibull,
+    b10Days,
+    medianDays,
+    meanDays,
+    kmMedianDays: km.median,
+    kmMedianLowerDays: km.medianLower,
+    kmMedianUpperDays: km.medianUpper,
+    km: km.rows.map((row) => ({
+      tDays: row.t,
+      survival: row.survival,
+      nRisk: row.nRisk,
+      nEvents: row.nEvents,
+      nCensored: row.nCensored,
+      se: row.se,
+      lower: row.lower,
+      upper: row.upper,
+    })),
+    medianRankRegression,
+    ...(Object.keys(reasons).length > 0 ? { reasons } : {}),
+  };
+}
+
+/**
+ * Element life by group (DESIGN §6). For each element install in the vessels of the scope:
+ * life = removal − installation in days (real elapsed time), a life-ending event when the removal
+ * reason is failed, performance or damaged, else censored; the window rule is `observeLives`'s
+ * (installs made in [from, to), lives still running at `to` censored there). Per group: n, events,
+ * Kaplan–Meier survival with Greenwood log-transformed bounds and its median (Kaplan & Meier 1958,
+ * as R survival::survfit), a two-parameter Weibull fitted by maximum likelihood with right censoring
+ * and likelihood-ratio intervals at the query's confidence (NIST/SEMATECH e-Handbook §8.4.1.2;
+ * Lawless ch. 5), B10 = η(−ln 0.9)^{1/β}, median = η(ln 2)^{1/β}, mean = ηΓ(1 + 1/β) in days, and a
+ * median-rank regression (Bernard ranks, Johnson's adjustment) for comparison.
+ * Degenerate input: no elements → the `all` group with n = 0 and null figures ('no-data');
+ * all censored → null fit ('no-events') with the KM curve flat at 1 ('not-reached'); every event at
+ * the longest age → null fit ('shape-diverges'). Never NaN. Provenance: element serials (at most
+ * `provenanceSerialCap`, `elementCount` gives the full number) and the window used.
+ */
+export async function getElementLife(db: Db, query: ElementLifeQuery): Promise<ElementLifeReport> {
+  const scope = await resolveScope(db, query);
+  const places = vesselPlaces(scope);
+  const installs = scope.to === null ? [] : await listElementInstalls(db.$client, scope.site.id, [...places.keys()], scope.to);
+  const lives = scope.to === null ? [] : observeLives(installs, places, query.groupBy, scope.from, scope.to);
+  const groups = [...groupLives(lives, query.groupBy)].map(([key, list]) => elementLifeGroup(key, list, query.confidence));
+  const provenance: Provenance & { elementCount: number } = {
+    workOrders: [],
+    tags: [],
+    windows:
+      scope.from && scope.to
+        ? [
+            {
+              from: scope.from.toISOString(),
+              to: scope.to.toISOString(),
+              what: 'elements installed in this window, followed to their removal or to its end (still in service: censored at the end)',
+            },
+          ]
+        : [],
+    ...serialProvenance(lives.map((l) => l.serial)),
+  };
+  return {
+    site: scope.site.code,
+    from: scope.from?.toISOString() ?? null,
+    to: scope.to?.toISOString() ?? null,
+    confidence: query.confidence,
+    groupBy: query.groupBy,
+    groups,
+    provenance,
+  };
+}

@@ -1,0 +1,217 @@
+// Element replacement forecast: the elements in service at the start, their ages, the Weibull fit of
+// their group (the same lives and window rule as element-life), the next calendar months in the
+// site's time zone — then shared/kpi/forecast.ts.
+import { TZDate } from '@date-fns/tz';
+import { vesselWorkCautions } from '#shared/cautions.ts';
+import { fitWeibull, weibullConfidenceRegion, type WeibullFitResult } from '#shared/kpi/element-life.ts';
+import {
+  forecastBandMethod,
+  forecastReplacements,
+  type ForecastElement,
+  type ForecastPeriod,
+} from '#shared/kpi/forecast.ts';
+import type { ForecastQuery, ForecastReport, Provenance } from '#shared/schemas/kpi.ts';
+import type { Db } from '../db/client.ts';
+import { listElementInstalls, type ElementInstall } from '../db/queries/elements.ts';
+import { getSettings } from './settings.ts';
+import { resolveScope } from './scope.ts';
+import {
+  compareGroupKeys,
+  elementGroupKey,
+  groupLives,
+  observeLives,
+  serialProvenance,
+  vesselPlaces,
+  weibullOut,
+  type ElementLifeObservation,
+} from './element-life.ts';
+
+const DAY_MS = 86_400_000;
+
+/** In-service elements listed per group at most (highest probability first); the count is in `inService`. */
+export const forecastElementListCap = 500;
+
+type ForecastGroup = ForecastReport['groups'][number];
+
+/** A month of the answer; `partial` marks the rest of the month the forecast starts in. */
+export type ForecastMonthOut = ForecastGroup['months'][number] & { partial: boolean };
+
+/** A group of the answer; `fitSource` says whether the group's own fit or the pooled one was used. */
+export type ForecastGroupOut = Omit<ForecastGroup, 'months'> & { months: ForecastMonthOut[]; fitSource: 'group' | 'pooled' };
+
+/** The forecast answer plus what the dashboard shows beside it (DESIGN §9) and the shaping notes. */
+export type ForecastAnswer = Omit<ForecastReport, 'groups'> & {
+  groups: ForecastGroupOut[];
+  /** Elements in service at `asOf` in the scope, forecast or not. */
+  inService: number;
+  /** Safety cautions for the replacement work the forecast plans (shared/cautions.ts). */
+  cautions: readonly string[];
+  notes: string[];
+};
+
+/**
+ * Forecast periods from `asOf`: when `asOf` is not the first instant of a calendar month in the
+ * site's zone, the rest of its month comes first (marked partial), then `months` whole calendar
+ * months. Month bounds are local midnights of the 1st, so a month is 28–31 days of real time, and a
+ * daylight-saving month is an hour shorter or longer.
+ */
+export function forecastMonths(asOf: Date, months: number, timeZone: string): Array<ForecastPeriod & { partial: boolean }> {
+  const local = new TZDate(asOf.getTime(), timeZone);
+  const monthStart = (offset: number) => new TZDate(local.getFullYear(), local.getMonth() + offset, 1, timeZone);
+  const label = (d: TZDate) => `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, '0')}`;
+  const periods: Array<ForecastPeriod & { partial: boolean }> = [];
+  const aligned = monthStart(0).getTime() === asOf.getTime();
+  if (!aligned) periods.push({ label: label(local), start: asOf, end: new Date(monthStart(1).getTime()), partial: true });
+  const first = aligned ? 0 : 1;
+  for (let k = first; k < first + months; k++) {
+    const start = monthStart(k);
+    periods.push({ label: label(start), start: new Date(start.getTime()), end: new Date(monthStart(k + 1).getTime()), partial: false });
+  }
+  return periods;
+}
+
+/** Elements in service at `asOf`: installed before it and not removed by then. */
+function inServiceAt(installs: readonly ElementInstall[], asOf: Date): ElementInstall[] {
+  return installs.filter((e) => e.installedAt < asOf && (e.removedAt === null || e.removedAt > asOf));
+}
+
+function fitOf(lives: readonly ElementLifeObservation[], confidence: number): { result: WeibullFitResult; times: number[]; events: boolean[] } {
+  const times = lives.map((l) => l.days);
+  const events = lives.map((l) => l.event);
+  return { result: fitWeibull(times, events, { confidence }), times, events };
+}
+
+/**
+ * Replacement forecast (DESIGN §6). asOf = the window end `to` (default: the end of the data; now
+ * when the site has no data). For each element in service at asOf with age a days and the Weibull
+ * (β, η) of its group (fitted by maximum likelihood to the lives `element-life` reports for the
+ * window [from, asOf), same group-by), the probability of a life-ending event in a month [s, e)
+ * after asOf is exp(H(a) − H(a+s))·(1 − exp(H(a+s) − H(a+e))) with H(x) = (x/η)^β; expected count =
+ * Σ of those probabilities, expected cost = count × settings.elementUnitCost. Conditional on survival
+ * to asOf, the probability within h is 1 − exp((a/η)^β − ((a+h)/η)^β). Band: the range over the
+ * likelihood-ratio confidence region of (β, η) at χ²(1) and the query's confidence (profile
+ * likelihood; Meeker & Escobar ch. 8, from memory). `renewal` also counts failures of replacements.
+ * A group whose own lives give no fit (no events, or every event at the longest age) borrows the
+ * pooled fit of every life in scope, and says so (`fitSource`, notes); with no pooled fit either, its
+ * elements are not forecast (listed in the notes) rather than shown as zero. Totals add the groups
+ * month by month. Every answer carries the vessel-work cautions: a replacement opens pressure vessels.
+ */
+export async function getForecast(db: Db, query: ForecastQuery): Promise<ForecastAnswer> {
+  const scope = await resolveScope(db, query);
+  const settings = await getSettings(db);
+  // The service may read the clock; only shared/ may not. Without any data there is no other start.
+  const asOf = scope.to ?? new Date();
+  const places = vesselPlaces(scope);
+  const installs = await listElementInstalls(db.$client, scope.site.id, [...places.keys()], asOf);
+  const lives = observeLives(installs, places, query.groupBy, scope.from, asOf);
+  const livesByGroup = groupLives(lives, query.groupBy);
+  const pooled = fitOf(lives, query.confidence);
+
+  const periods = forecastMonths(asOf, query.months, scope.site.timeZone);
+  const inService = inServiceAt(installs, asOf);
+  const serviceByGroup = new Map<string, ElementInstall[]>();
+  for (const e of inService) {
+    const key = elementGroupKey(query.groupBy, e, places.get(e.vesselId)!);
+    (serviceByGroup.get(key) ?? serviceByGroup.set(key, []).get(key)!).push(e);
+  }
+
+  const notes: string[] = [];
+  const groups: ForecastGroupOut[] = [];
+  const keys = [...new Set([...livesByGroup.keys(), ...serviceByGroup.keys()])].sort(compareGroupKeys);
+  for (const key of keys) {
+    const elements = serviceByGroup.get(key) ?? [];
+    const own = fitOf(livesByGroup.get(key) ?? [], query.confidence);
+    const usePooled = own.result.fit === null && pooled.result.fit !== null && key !== 'all';
+    const chosen = usePooled ? pooled : own;
+    if (chosen.result.fit === null) {
+      if (elements.length > 0) {
+        notes.push(
+          `${key}: ${elements.length} element(s) in service are not forecast — no Weibull fit (${own.result.reason}` +
+            `${key === 'all' ? '' : `; pooled: ${pooled.result.reason}`}).`,
+        );
+      }
+      continue;
+    }
+    if (usePooled) {
+      notes.push(`${key}: its own lives give no Weibull fit (${own.result.reason}); the pooled fit of every life in scope is used.`);
+    }
+    const fit = chosen.result.fit;
+    const region = weibullConfidenceRegion(chosen.times, chosen.events, { confidence: query.confidence, dof: 1 });
+    if (region.some((p) => !p.closed)) {
+      notes.push(`${key}: the confidence region of the fit does not close (too few events): the band understates the uncertainty.`);
+    }
+    const forecastElements: ForecastElement[] = elements.map((e) => ({
+      id: e.serial,
+      ageDays: (asOf.getTime() - e.installedAt.getTime()) / DAY_MS,
+      replacementCost: settings.elementUnitCost,
+    }));
+    const result = forecastReplacements({
+      asOf,
+      elements: forecastElements,
+      periods,
+      fit: { shape: fit.shape, scale: fit.scale },
+      region: region.map(({ shape, scale }) => ({ shape, scale })),
+      renewal: query.renewal,
+    });
+    const listed = [...result.elements].sort((a, b) => b.probability - a.probability || (a.id < b.id ? -1 : 1));
+    if (listed.length > forecastElementListCap) {
+      notes.push(`${key}: the ${forecastElementListCap} elements most likely to need replacing are listed, of ${listed.length}.`);
+    }
+    groups.push({
+      key,
+      inService: elements.length,
+      weibull: weibullOut(fit),
+      fitSource: usePooled ? 'pooled' : 'group',
+      months: result.periods.map((p, k) => ({
+        label: p.label,
+        from: p.start.toISOString(),
+        to: p.end.toISOString(),
+        partial: periods[k]!.partial,
+        expectedCount: p.expectedCount,
+        expectedCost: p.expectedCost,
+        countLower: p.countLower,
+        countUpper: p.countUpper,
+        costLower: p.costLower,
+        costUpper: p.costUpper,
+      })),
+      total: result.total,
+      elements: listed
+        .slice(0, forecastElementListCap)
+        .map((e) => ({ serial: e.id, ageDays: e.ageDays, probability: Math.min(1, Math.max(0, e.probability)) })),
+    });
+  }
+  if (inService.length === 0) notes.push('No element is in service at the forecast start in this scope.');
+
+  const totals = periods.map((p, k) => ({
+    label: p.label,
+    from: p.start.toISOString(),
+    to: p.end.toISOString(),
+    expectedCount: groups.reduce((s, g) => s + g.months[k]!.expectedCount, 0),
+    expectedCost: groups.reduce((s, g) => s + g.months[k]!.expectedCost, 0),
+  }));
+  const horizonEnd = periods[periods.length - 1]!.end;
+  const provenance: Provenance & { elementCount: number } = {
+    workOrders: [],
+    tags: [],
+    windows: [
+      ...(scope.from ? [{ from: scope.from.toISOString(), to: asOf.toISOString(), what: 'element lives used for the fits' }] : []),
+      { from: asOf.toISOString(), to: horizonEnd.toISOString(), what: 'forecast horizon' },
+    ],
+    ...serialProvenance(inService.map((e) => e.serial)),
+  };
+  return {
+    site: scope.site.code,
+    asOf: asOf.toISOString(),
+    confidence: query.confidence,
+    groupBy: query.groupBy,
+    currency: settings.currency,
+    renewal: query.renewal,
+    bandMethod: forecastBandMethod,
+    groups,
+    totals,
+    inService: inService.length,
+    cautions: vesselWorkCautions,
+    notes,
+    provenance,
+  };
+}

@@ -1,0 +1,88 @@
+// Which site, asset and window a KPI question is about: the part every KPI service shares.
+import type { WindowQuery } from '#shared/schemas/common.ts';
+import type { Db } from '../db/client.ts';
+import { listAssets, type AssetRecord } from '../db/queries/assets.ts';
+import { findSite, listSites, type SiteRow } from '../db/queries/sites.ts';
+import { HttpError, badRequest, notFound } from '../errors.ts';
+import { TimestampReader } from '../importers/values.ts';
+
+export interface KpiScope {
+  site: SiteRow;
+  /** All assets of the site. */
+  assets: AssetRecord[];
+  /** The asset asked about, if any. */
+  asset: AssetRecord | null;
+  /** The asset and every asset below it (the whole site without an asset). */
+  inScope: AssetRecord[];
+  /** Half-open window [from, to); null bounds when the site has no data at all. */
+  from: Date | null;
+  to: Date | null;
+}
+
+/** The asset and its descendants, parents before children. */
+export function subtree(assets: AssetRecord[], root: AssetRecord): AssetRecord[] {
+  const children = new Map<number, AssetRecord[]>();
+  for (const a of assets) if (a.parentId !== null) (children.get(a.parentId) ?? children.set(a.parentId, []).get(a.parentId)!).push(a);
+  const out: AssetRecord[] = [];
+  const walk = (a: AssetRecord) => {
+    out.push(a);
+    for (const c of children.get(a.id) ?? []) walk(c);
+  };
+  walk(root);
+  return out;
+}
+
+/** The asset, then its parent, and so on up to the root. */
+export function ancestry(assets: AssetRecord[], asset: AssetRecord): AssetRecord[] {
+  const byId = new Map(assets.map((a) => [a.id, a]));
+  const out: AssetRecord[] = [];
+  for (let at: AssetRecord | undefined = asset; at && !out.includes(at); at = at.parentId === null ? undefined : byId.get(at.parentId)) out.push(at);
+  return out;
+}
+
+/** A window bound: an instant with offset as is; a bare date or naive date-time in the site's zone. */
+export function resolveBound(text: string, timeZone: string): Date {
+  const r = new TimestampReader(timeZone).read(text.length === 10 ? `${text}T00:00:00` : text);
+  if (!r.ok) throw badRequest('invalid-window', r.reason);
+  return new Date(r.value);
+}
+
+/** The extent of a site's data: samples, work orders and element installs. */
+async function dataExtent(db: Db, siteId: number): Promise<{ from: Date | null; to: Date | null }> {
+  const { rows } = await db.$client.query<{ from: Date | null; to: Date | null }>(
+    `select min(f) as "from", max(t) as "to" from (
+       select min(c.from_ts) f, max(c.to_ts) + interval '1 second' t from sample_coverage c join tags g on g.id = c.tag_id where g.site_id = $1
+       union all select min(reported_at), max(greatest(reported_at, completed_at, out_of_service_to)) + interval '1 second' from work_orders where site_id = $1
+       union all select min(installed_at), max(greatest(installed_at, removed_at)) + interval '1 second' from elements where site_id = $1
+     ) x`,
+    [siteId],
+  );
+  return rows[0] ?? { from: null, to: null };
+}
+
+export async function resolveSiteOnly(db: Db, code: string | undefined): Promise<SiteRow> {
+  if (code) {
+    const site = await findSite(db.$client, code);
+    if (!site) throw notFound('site-not-found', `No site "${code}".`);
+    return site;
+  }
+  const sites = await listSites(db.$client);
+  if (sites.length === 1) return sites[0];
+  if (sites.length === 0) throw notFound('site-not-found', 'No site exists yet: import an asset register first.');
+  throw new HttpError(400, 'site-required', `Several sites exist (${sites.map((s) => s.code).join(', ')}): name one with site.`);
+}
+
+export async function resolveScope(db: Db, query: WindowQuery): Promise<KpiScope> {
+  const site = await resolveSiteOnly(db, query.site);
+  const assets = await listAssets(db.$client, site.id);
+  let asset: AssetRecord | null = null;
+  if (query.asset) {
+    asset = assets.find((a) => a.code.toLowerCase() === query.asset!.toLowerCase()) ?? null;
+    if (!asset) throw notFound('asset-not-found', `No asset "${query.asset}" on site ${site.code}.`);
+  }
+  const extent = query.from && query.to ? { from: null, to: null } : await dataExtent(db, site.id);
+  const from = query.from ? resolveBound(query.from, site.timeZone) : extent.from;
+  const to = query.to ? resolveBound(query.to, site.timeZone) : extent.to;
+  if (from && to && from >= to) throw badRequest('invalid-window', `The window is empty: from (${from.toISOString()}) is not before to (${to.toISOString()}).`);
+  return { site, assets, asset, inScope: asset ? subtree(assets, asset) : assets, from, to };
+}
