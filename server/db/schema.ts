@@ -292,7 +292,6 @@ export const sampleHourly = pgTable(
     mean: doublePrecision('mean').notNull(),
     min: doublePrecision('min').notNull(),
     max: doublePrecision('max').notNull(),
-    last: doublePrecision('last').notNull(),
     lastTs: instant('last_ts').notNull(),
   },
   (t) => [uniqueIndex('sample_hourly_key').on(t.tagId, t.hour)],

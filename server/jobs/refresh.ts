@@ -22,6 +22,8 @@ export async function refresh(db: Db, options: { full?: boolean; log?: (line: st
   let stopsRebuilt = 0;
   try {
     await client.query('begin');
+    // Grouping a year of samples by tag and hour is one big hash aggregate: give it room.
+    await client.query(`set local work_mem = '256MB'`);
     if (options.full) await markAllDirty(client);
     const runTags = await runStatusTags(client);
     const ranges = await claimDirtyRanges(client);
@@ -33,10 +35,8 @@ export async function refresh(db: Db, options: { full?: boolean; log?: (line: st
     }
     for (const { from, to, tagIds } of byRange.values()) {
       hoursRebuilt += await rebuildHourly(client, tagIds, from, to);
-      for (const id of tagIds) {
-        const run = runTags.get(id);
-        if (run) stopsRebuilt += await rebuildStops(client, run, from, to);
-      }
+      const run = tagIds.map((id) => runTags.get(id)).filter((r) => r !== undefined);
+      stopsRebuilt += await rebuildStops(client, run, from, to);
       tags += tagIds.length;
     }
     await client.query('commit');

@@ -39,9 +39,8 @@ export async function markAllDirty(q: Queryable): Promise<number> {
 export async function rebuildHourly(q: Queryable, tagIds: number[], from: Date, to: Date): Promise<number> {
   await q.query(`delete from sample_hourly where tag_id = any($1) and hour >= $2 and hour < $3`, [tagIds, from, to]);
   const { rowCount } = await q.query(
-    `insert into sample_hourly (tag_id, hour, n, mean, min, max, last, last_ts)
-     select tag_id, date_trunc('hour', ts), count(*), avg(value), min(value), max(value),
-            (array_agg(value order by ts desc))[1], max(ts)
+    `insert into sample_hourly (tag_id, hour, n, mean, min, max, last_ts)
+     select tag_id, date_trunc('hour', ts), count(*), avg(value), min(value), max(value), max(ts)
      from samples where tag_id = any($1) and ts >= $2 and ts < $3 and (quality & 192) = 192
      group by tag_id, date_trunc('hour', ts)`,
     [tagIds, from, to],
@@ -60,55 +59,77 @@ export async function runStatusTags(q: Queryable): Promise<Map<number, RunTag>> 
 }
 
 /**
- * Rebuild the stop events of a run-status tag over [from, to). A stop that begins before `from` and
- * runs into it is rebuilt whole, so the range first widens to the start of such a stop.
+ * Rebuild the stop events of run-status tags over [from, to), in one pass over the range for all of
+ * them. A stop that begins before `from` and runs into it is rebuilt whole: each tag's range first
+ * widens to the start of such a stop. Returns the number of stops written.
  */
-export async function rebuildStops(q: Queryable, tag: RunTag, from: Date, to: Date): Promise<number> {
-  const open = await q.query<{ from_ts: Date }>(
-    `select from_ts from downtime_events where tag_id = $1 and from_ts < $2 and (to_ts is null or to_ts >= $2) order by from_ts limit 1`,
-    [tag.tagId, from],
+export async function rebuildStops(q: Queryable, tags: RunTag[], from: Date, to: Date): Promise<number> {
+  if (tags.length === 0) return 0;
+  const ids = tags.map((t) => t.tagId);
+  const open = await q.query<{ tag_id: number; from_ts: Date }>(
+    `select distinct on (tag_id) tag_id, from_ts from downtime_events
+     where tag_id = any($1) and from_ts < $2 and (to_ts is null or to_ts >= $2) order by tag_id, from_ts`,
+    [ids, from],
   );
-  const start = open.rows[0]?.from_ts ?? from;
-  // The state just before the range, and every change of state inside it (good samples only).
-  const prior = await q.query<{ value: number }>(
-    `select value from samples where tag_id = $1 and ts < $2 and ts >= $2 - interval '30 days' and (quality & 192) = 192 order by ts desc limit 1`,
-    [tag.tagId, start],
+  const startOf = new Map(open.rows.map((r) => [r.tag_id, r.from_ts]));
+  const start = new Date(Math.min(from.getTime(), ...open.rows.map((r) => r.from_ts.getTime())));
+  // The state of each tag just before its range (good samples within 30 days before it).
+  const prior = await q.query<{ tag_id: number; value: number }>(
+    `select distinct on (tag_id) tag_id, value from samples
+     where tag_id = any($1) and ts < $2 and ts >= $3::timestamptz - interval '30 days' and (quality & 192) = 192
+     order by tag_id, ts desc`,
+    [ids, from, start],
   );
-  const { rows } = await q.query<{ ts: Date; running: boolean }>(
-    `select ts, running from (
-       select ts, value >= 0.5 as running, lag(value >= 0.5) over (order by ts) as prev
-       from samples where tag_id = $1 and ts >= $2 and ts < $3 and (quality & 192) = 192) s
-     where prev is distinct from running order by ts`,
-    [tag.tagId, start, to],
+  const priorOf = new Map(prior.rows.map((r) => [r.tag_id, r.value >= 0.5]));
+  // Every change of state inside the range, all tags in one scan.
+  const { rows } = await q.query<{ tag_id: number; ts: Date; running: boolean }>(
+    `select tag_id, ts, running from (
+       select tag_id, ts, value >= 0.5 as running, lag(value >= 0.5) over (partition by tag_id order by ts) as prev
+       from samples where tag_id = any($1) and ts >= $2 and ts < $3 and (quality & 192) = 192) s
+     where prev is distinct from running order by tag_id, ts`,
+    [ids, start, to],
   );
-  const stops: { from: Date; to: Date | null }[] = [];
-  let stoppedAt: Date | null = prior.rows[0] && prior.rows[0].value < 0.5 ? start : null;
-  let wasRunning: boolean | undefined = prior.rows[0] ? prior.rows[0].value >= 0.5 : undefined;
-  for (const r of rows) {
-    if (r.running === wasRunning) continue;
-    if (!r.running) stoppedAt = r.ts;
-    else if (stoppedAt) {
-      stops.push({ from: stoppedAt, to: r.ts });
-      stoppedAt = null;
+  const changes = new Map<number, { ts: Date; running: boolean }[]>();
+  for (const r of rows) (changes.get(r.tag_id) ?? changes.set(r.tag_id, []).get(r.tag_id)!).push(r);
+
+  const written: { assetId: number; tagId: number; from: Date; to: Date | null }[] = [];
+  const stillStopped: number[] = [];
+  for (const tag of tags) {
+    const tagStart = startOf.get(tag.tagId) ?? from;
+    let wasRunning = startOf.has(tag.tagId) ? false : priorOf.get(tag.tagId);
+    let stoppedAt: Date | null = wasRunning === false ? tagStart : null;
+    for (const c of changes.get(tag.tagId) ?? []) {
+      if (c.ts < tagStart || c.running === wasRunning) continue;
+      if (!c.running) stoppedAt = c.ts;
+      else if (stoppedAt) {
+        written.push({ assetId: tag.assetId, tagId: tag.tagId, from: stoppedAt, to: c.ts });
+        stoppedAt = null;
+      }
+      wasRunning = c.running;
     }
-    wasRunning = r.running;
+    if (stoppedAt) {
+      written.push({ assetId: tag.assetId, tagId: tag.tagId, from: stoppedAt, to: null });
+      stillStopped.push(written.length - 1);
+    }
   }
-  if (stoppedAt) {
-    // Still stopped at the end of the range: closed by the next start after it, if any is stored.
+  // A stop still open at the end of the range ends at the tag's next start after it, if one is stored.
+  for (const i of stillStopped) {
     const next = await q.query<{ ts: Date }>(
-      `select ts from samples where tag_id = $1 and ts >= $2 and value >= 0.5 and (quality & 192) = 192 order by ts limit 1`,
-      [tag.tagId, to],
+      `select ts from samples where tag_id = $1 and ts >= $2 and ts < $2::timestamptz + interval '30 days' and value >= 0.5 and (quality & 192) = 192 order by ts limit 1`,
+      [written[i].tagId, to],
     );
-    stops.push({ from: stoppedAt, to: next.rows[0]?.ts ?? null });
+    written[i].to = next.rows[0]?.ts ?? null;
   }
-  await q.query(`delete from downtime_events where tag_id = $1 and from_ts >= $2 and from_ts < $3`, [tag.tagId, start, to]);
-  if (stops.length) {
+  for (const tag of tags) {
+    await q.query(`delete from downtime_events where tag_id = $1 and from_ts >= $2 and from_ts < $3`, [tag.tagId, startOf.get(tag.tagId) ?? from, to]);
+  }
+  if (written.length) {
     await q.query(
       `insert into downtime_events (asset_id, tag_id, from_ts, to_ts)
-       select $1, $2, * from unnest($3::timestamptz[], $4::timestamptz[])
+       select * from unnest($1::int[], $2::int[], $3::timestamptz[], $4::timestamptz[])
        on conflict (asset_id, from_ts) do update set to_ts = excluded.to_ts, tag_id = excluded.tag_id`,
-      [tag.assetId, tag.tagId, stops.map((s) => s.from), stops.map((s) => s.to)],
+      [written.map((w) => w.assetId), written.map((w) => w.tagId), written.map((w) => w.from), written.map((w) => w.to)],
     );
   }
-  return stops.length;
+  return written.length;
 }

@@ -95,3 +95,50 @@ export async function listWorkOrdersOpenDuring(
   );
   return rows;
 }
+
+/**
+ * Work orders on the given assets that a reliability or downtime window [from, to) reads: reported in it
+ * (failures are placed by reported_at) or out of service during it (downtime, calendar operating time).
+ */
+export async function listWorkOrdersReportedOrOutOfServiceIn(
+  q: Queryable,
+  siteId: number,
+  assetIds: readonly number[],
+  from: Date,
+  to: Date,
+): Promise<(WorkOrderValues & { id: number })[]> {
+  if (assetIds.length === 0) return [];
+  const { rows } = await q.query<WorkOrderValues & { id: number }>(
+    `select id, wo_number as "woNumber", asset_id as "assetId", type, priority, status, failure_code as "failureCode",
+            description, reported_at as "reportedAt", started_at as "startedAt", completed_at as "completedAt",
+            out_of_service_from as "outOfServiceFrom", out_of_service_to as "outOfServiceTo",
+            labour_hours as "labourHours", labour_cost as "labourCost", parts_cost as "partsCost", crew
+     from work_orders
+     where site_id = $1 and asset_id = any($2::int[])
+       and ((reported_at >= $3 and reported_at < $4) or (out_of_service_from < $4 and out_of_service_to > $3))
+     order by wo_number`,
+    [siteId, assetIds, from, to],
+  );
+  return rows;
+}
+
+/** Preventive work orders on the given assets reported before `to`: the candidates for cleanings. */
+export async function listPreventiveWorkOrders(
+  q: Queryable,
+  siteId: number,
+  assetIds: readonly number[],
+  to: Date,
+): Promise<(WorkOrderValues & { id: number })[]> {
+  if (assetIds.length === 0) return [];
+  const { rows } = await q.query<WorkOrderValues & { id: number }>(
+    `select id, wo_number as "woNumber", asset_id as "assetId", type, priority, status, failure_code as "failureCode",
+            description, reported_at as "reportedAt", started_at as "startedAt", completed_at as "completedAt",
+            out_of_service_from as "outOfServiceFrom", out_of_service_to as "outOfServiceTo",
+            labour_hours as "labourHours", labour_cost as "labourCost", parts_cost as "partsCost", crew
+     from work_orders
+     where site_id = $1 and asset_id = any($2::int[]) and type = 'preventive' and reported_at < $3
+     order by wo_number`,
+    [siteId, assetIds, to],
+  );
+  return rows;
+}

@@ -1,0 +1,39 @@
+// `osmia kpi element-life`: one row per group with the Weibull fit and the life figures in days.
+import { nullReasonMessages } from '#shared/kpi/stats.ts';
+import type { ElementLifeReport } from '#shared/schemas/kpi.ts';
+import { formatNumber, formatTable } from '../output.ts';
+
+/** A plain-text report of element life: window, one row per group, then why any figure is missing. */
+export function formatElementLife(report: ElementLifeReport): string {
+  const lines: string[] = [];
+  const confidence = report.confidence ?? 0.9;
+  lines.push(
+    `Element life${report.site ? ` — site ${report.site}` : ''}, grouped by ${report.groupBy ?? 'all'}` +
+      `${report.from && report.to ? `, installed ${report.from} to ${report.to}` : ''}`,
+  );
+  const pct = formatNumber(confidence * 100, 1);
+  lines.push(
+    formatTable(
+      ['group', 'n', 'events', 'shape β', `β ${pct}% interval`, 'scale η (d)', 'B10 (d)', 'median (d)', 'mean (d)', 'KM median (d)'],
+      report.groups.map((g) => [
+        g.key,
+        g.n,
+        g.events,
+        g.weibull?.shape ?? null,
+        g.weibull?.shapeLower === undefined ? null : `${formatNumber(g.weibull.shapeLower)}–${g.weibull.shapeUpper == null ? '∞' : formatNumber(g.weibull.shapeUpper)}`,
+        g.weibull?.scaleDays ?? null,
+        g.b10Days,
+        g.medianDays,
+        g.meanDays,
+        g.kmMedianDays ?? null,
+      ]),
+    ),
+  );
+  const missing = report.groups.flatMap((g) => {
+    const reason = g.reasons?.['weibull'];
+    return g.weibull === null && reason ? [`${g.key}: no Weibull fit — ${nullReasonMessages[reason]}`] : [];
+  });
+  if (missing.length > 0) lines.push(...missing);
+  lines.push('Lives still in service at the window end are censored there; B10, median and mean come from the Weibull fit.');
+  return lines.join('\n');
+}

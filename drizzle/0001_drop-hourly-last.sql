@@ -1,0 +1,1 @@
+ALTER TABLE "sample_hourly" DROP COLUMN "last";

@@ -1,0 +1,398 @@
+// Reliability KPI (DESIGN §6, §7): MTBF with chi-square bounds, MTTR, mean active repair time and
+// availability of an asset and everything below it (or of the whole site), optionally per asset or kind.
+import {
+  operatingTimeFromCalendar,
+  operatingTimeFromRunStatus,
+  type OperatingTimeSource,
+  type OutOfServiceWindow,
+} from '#shared/kpi/operating-time.ts';
+import {
+  inherentAvailability,
+  meanActiveRepairHours,
+  mtbfWithBounds,
+  mttrHours,
+  operationalAvailability,
+} from '#shared/kpi/reliability.ts';
+import { nullBecause, type NullReason, type Ratio } from '#shared/kpi/stats.ts';
+import type { Provenance, ReliabilityQuery, ReliabilityReport } from '#shared/schemas/kpi.ts';
+import type { Db } from '../db/client.ts';
+import type { AssetRecord } from '../db/queries/assets.ts';
+import { listTags, type TagRow } from '../db/queries/tags.ts';
+import { listWorkOrdersReportedOrOutOfServiceIn, type WorkOrderValues } from '../db/queries/work-orders.ts';
+import { capped, loadRunStatusHistories, type RunStatusHistory } from './downtime.ts';
+import { ancestry, resolveScope, subtree } from './scope.ts';
+
+const MS_PER_HOUR = 3_600_000;
+
+type WorkOrder = WorkOrderValues & { id: number };
+
+/** Operating time of one asset (a "unit"), as it enters a sum. */
+interface UnitTime {
+  asset: string;
+  source: OperatingTimeSource;
+  /** Run-status tag used; null for the calendar fallback. */
+  tag: string | null;
+  hours: number;
+  uptimeHours: number;
+  downtimeHours: number;
+  unknownHours: number;
+  windowHours: number;
+  /** Work orders whose out-of-service windows were subtracted (calendar fallback). */
+  outOfService: string[];
+  notes: string[];
+}
+
+/** How each failure's restoration time was found (DESIGN §6 MTTR; fallback when no out-of-service window). */
+interface MttrBasis {
+  outOfServiceWindow: number;
+  completedLessReported: number;
+  unknown: number;
+}
+
+type Figures = Omit<ReliabilityReport, 'site' | 'from' | 'to' | 'confidence' | 'sides' | 'terminated' | 'groups' | 'provenance'> & {
+  operatingTime: {
+    windowHours: number;
+    uptimeHours: number;
+    downtimeHours: number;
+    unknownHours: number;
+    units: { asset: string; source: OperatingTimeSource; tag: string | null; hours: number }[];
+  };
+  mttrBasis: MttrBasis;
+  notes: string[];
+};
+
+export type ReliabilityGroupAnswer = Figures & { key: string };
+export type ReliabilityAnswer = ReliabilityReport &
+  Figures & {
+    groups: ReliabilityGroupAnswer[];
+    provenance: Provenance;
+  };
+
+/** A failure (DESIGN §6): a corrective work order with a failure code, not cancelled. */
+function isFailure(wo: WorkOrder): boolean {
+  return wo.type === 'corrective' && wo.status !== 'cancelled' && (wo.failureCode ?? '').trim() !== '';
+}
+
+/** Weakest source of a sum: any calendar time makes it 'calendar-less-out-of-service', then ancestor, then own tag. */
+function weakestSource(units: readonly UnitTime[]): OperatingTimeSource {
+  const order: OperatingTimeSource[] = ['calendar-less-out-of-service', 'ancestor-run-status', 'run-status'];
+  return order.find((s) => units.some((u) => u.source === s)) ?? 'calendar-less-out-of-service';
+}
+
+const hoursOf = (from: Date, to: Date) => (to.getTime() - from.getTime()) / MS_PER_HOUR;
+
+function ratioOf(value: number | null, reason: NullReason | undefined): Ratio {
+  return value === null ? nullBecause(reason ?? 'no-data') : { value };
+}
+
+/**
+ * MTBF, its bounds, MTTR, mean active repair time and both availabilities from an operating time and a
+ * list of failures. Formulas in shared/kpi/reliability.ts (NIST/SEMATECH e-Handbook §8.4.5.1 for the
+ * bounds; IEC 60050-192, EN 13306, EN 15341 for the terms).
+ */
+function figuresOf(asset: string | null, scope: string[], units: UnitTime[], failures: WorkOrder[], confidence: number): Figures {
+  const sum = (pick: (u: UnitTime) => number) => units.reduce((acc, u) => acc + pick(u), 0);
+  const T = sum((u) => u.hours);
+  const uptime = sum((u) => u.uptimeHours);
+  const downtime = sum((u) => u.downtimeHours);
+  const notes = units.flatMap((u) => u.notes);
+  const reasons: Record<string, NullReason> = {};
+  const r = failures.length;
+
+  const mtbf = mtbfWithBounds({ operatingHours: T, failures: r, confidence, terminated: 'time' });
+  if (mtbf.reason) {
+    reasons.mtbfHours = mtbf.reason;
+    reasons.mtbfUpperHours = mtbf.reason;
+    if (mtbf.lowerHours === null) reasons.mtbfLowerHours = mtbf.reason;
+  }
+  if (r === 0 && T > 0) {
+    const alpha = 1 - confidence;
+    notes.push(
+      `No failures in the window: no MTBF point estimate and no upper bound. mtbfLowerHours is the zero-failure bound ` +
+        `2T/χ²(1−α/2; 2) = T/(−ln(α/2)) with α = ${round(alpha)}, i.e. MTBF ≥ ${round(mtbf.lowerHours ?? 0)} h at one-sided ` +
+        `confidence ${round(1 - alpha / 2)} (NIST/SEMATECH e-Handbook §8.4.5.1).`,
+    );
+  }
+
+  const basis: MttrBasis = { outOfServiceWindow: 0, completedLessReported: 0, unknown: 0 };
+  const restoration: number[] = [];
+  for (const wo of failures) {
+    if (wo.outOfServiceFrom && wo.outOfServiceTo) {
+      basis.outOfServiceWindow++;
+      restoration.push(hoursOf(wo.outOfServiceFrom, wo.outOfServiceTo));
+    } else if (wo.completedAt) {
+      basis.completedLessReported++;
+      restoration.push(hoursOf(wo.reportedAt, wo.completedAt));
+    } else {
+      basis.unknown++;
+    }
+  }
+  if (basis.completedLessReported > 0) {
+    notes.push(
+      `${basis.completedLessReported} of ${r} failure(s) have no out-of-service window: their restoration time is completed − reported.`,
+    );
+  }
+  if (basis.unknown > 0) {
+    notes.push(`${basis.unknown} of ${r} failure(s) have neither an out-of-service window nor a completion: MTTR leaves them out.`);
+  }
+  const mttr: Ratio = r === 0 ? nullBecause('no-failures') : restoration.length === 0 ? nullBecause('no-repairs') : mttrHours(restoration);
+  if (mttr.value === null) reasons.mttrHours = mttr.reason;
+
+  const repairs = failures.flatMap((wo) => (wo.startedAt && wo.completedAt ? [{ startedAt: wo.startedAt, completedAt: wo.completedAt }] : []));
+  const active = meanActiveRepairHours(repairs);
+  if (active.value === null) reasons.meanActiveRepairHours = active.reason;
+
+  const availability = inherentAvailability(ratioOf(mtbf.mtbfHours, mtbf.reason), mttr);
+  if (availability.value === null) reasons.availability = availability.reason;
+  const operational = operationalAvailability(uptime, downtime);
+  if (operational.value === null) reasons.operationalAvailability = operational.reason;
+
+  return {
+    asset,
+    operatingHours: T,
+    failures: r,
+    mtbfHours: mtbf.mtbfHours,
+    mtbfLowerHours: mtbf.lowerHours,
+    mtbfUpperHours: mtbf.upperHours,
+    mttrHours: mttr.value,
+    availability: availability.value,
+    operationalAvailability: operational.value,
+    meanActiveRepairHours: active.value,
+    scope,
+    operatingTimeSource: weakestSource(units),
+    reasons,
+    operatingTime: {
+      windowHours: units.length > 0 ? units[0]!.windowHours : 0,
+      uptimeHours: uptime,
+      downtimeHours: downtime,
+      unknownHours: sum((u) => u.unknownHours),
+      units: units.map((u) => ({ asset: u.asset, source: u.source, tag: u.tag, hours: u.hours })),
+    },
+    mttrBasis: basis,
+    notes,
+  };
+}
+
+function round(x: number): number {
+  return Math.round(x * 1000) / 1000;
+}
+
+/**
+ * Reliability over [from, to) of the asset asked about and everything below it, or of the whole site.
+ *
+ * - Failures r: corrective work orders with a failure code, not cancelled, reported in the window, on an
+ *   asset in scope (DESIGN §6).
+ * - Operating time T, hours: running time from the asset's run-status tag, else its nearest ancestor's
+ *   ('run-status' / 'ancestor-run-status'), rebuilt from the stop events and data spans of the derived tables
+ *   (see loadRunStatusHistories), counted only where the tag has data; with no such tag, the window less
+ *   the union of the out-of-service windows of the (non-cancelled) work orders on the asset and below it
+ *   ('calendar-less-out-of-service'). For the whole site T is the sum over its top-level assets, and for a
+ *   kind group the sum over the assets of that kind (pooled unit time of several repairable units, NIST
+ *   §8.4.5.1 assumes a constant rate); the source given is then the weakest one in the sum, and
+ *   `operatingTime.units` lists each.
+ * - MTBF = T/r with two-sided time-terminated bounds at `confidence` (lower 2T/χ²_{1−α/2}(2r+2), upper
+ *   2T/χ²_{α/2}(2r); NIST/SEMATECH e-Handbook §8.4.5.1). MTTR = total out-of-service hours of the failures / r
+ *   (without an out-of-service window, completed − reported; `mttrBasis` counts each). Mean active repair =
+ *   mean of completed − started. availability = MTBF/(MTBF+MTTR); operationalAvailability =
+ *   uptime/(uptime + downtime) where the state is known.
+ * - groupBy 'asset': one group per asset in scope with failures of its own or a run-status tag of its own,
+ *   each with the figures of that asset and everything below it; 'kind': one group per asset kind, with the
+ *   failures of the assets of that kind.
+ *
+ * Degenerate input: r = 0 → MTBF, upper bound, MTTR and availability null ('no-failures'), the lower bound
+ * is the zero-failure bound (noted); T = 0 → every MTBF figure null ('no-operating-time'); a site without data
+ * → from/to null and every figure null ('no-data').
+ */
+export async function getReliability(db: Db, query: ReliabilityQuery): Promise<ReliabilityAnswer> {
+  const scope = await resolveScope(db, query);
+  const { site, assets, asset, inScope } = scope;
+  const codes = inScope.map((a) => a.code);
+  const header = {
+    site: site.code,
+    confidence: query.confidence,
+    sides: 'two-sided' as const,
+    terminated: 'time' as const,
+  };
+  if (!scope.from || !scope.to) {
+    const reasons: Record<string, NullReason> = {};
+    for (const k of ['mtbfHours', 'mtbfLowerHours', 'mtbfUpperHours', 'mttrHours', 'availability', 'operationalAvailability', 'meanActiveRepairHours']) {
+      reasons[k] = 'no-data';
+    }
+    return {
+      ...header,
+      from: scope.from?.toISOString() ?? null,
+      to: scope.to?.toISOString() ?? null,
+      asset: asset?.code ?? null,
+      operatingHours: 0,
+      failures: 0,
+      mtbfHours: null,
+      mtbfLowerHours: null,
+      mtbfUpperHours: null,
+      mttrHours: null,
+      availability: null,
+      operationalAvailability: null,
+      meanActiveRepairHours: null,
+      scope: codes,
+      reasons,
+      operatingTime: { windowHours: 0, uptimeHours: 0, downtimeHours: 0, unknownHours: 0, units: [] },
+      mttrBasis: { outOfServiceWindow: 0, completedLessReported: 0, unknown: 0 },
+      groups: [],
+      notes: [`Site ${site.code} has no data to bound a window: give from and to, or import data first.`],
+      provenance: { workOrders: [], tags: [], windows: [] },
+    };
+  }
+  const from = scope.from;
+  const to = scope.to;
+  const window = { from, to };
+  const notes: string[] = [];
+
+  // Run-status tags by asset (the first by name when an asset has several).
+  const runTagOf = new Map<number, TagRow>();
+  for (const tag of await listTags(db.$client, site.id)) {
+    if (tag.quantity !== 'run_status') continue;
+    if (runTagOf.has(tag.assetId)) notes.push(`${tag.assetCode} has several run-status tags: ${runTagOf.get(tag.assetId)!.name} is used, ${tag.name} is not.`);
+    else runTagOf.set(tag.assetId, tag);
+  }
+  const orders = await listWorkOrdersReportedOrOutOfServiceIn(db.$client, site.id, inScope.map((a) => a.id), from, to);
+  const failures = orders.filter((wo) => isFailure(wo) && wo.reportedAt >= from && wo.reportedAt < to);
+
+  // Which tag gives each asset's operating time: its own, else the nearest ancestor's.
+  const tagFor = (a: AssetRecord): { tag: TagRow; source: OperatingTimeSource } | null => {
+    for (const [i, at] of ancestry(assets, a).entries()) {
+      const tag = runTagOf.get(at.id);
+      if (tag) return { tag, source: i === 0 ? 'run-status' : 'ancestor-run-status' };
+    }
+    return null;
+  };
+
+  const neededTags = new Map<number, TagRow>();
+  for (const a of inScope) {
+    const t = tagFor(a);
+    if (t) neededTags.set(t.tag.id, t.tag);
+  }
+  const { histories, notes: historyNotes } = await loadRunStatusHistories(db, [...neededTags.values()], from, to);
+  notes.push(...historyNotes);
+
+  const byTag = new Map<number, Omit<UnitTime, 'asset' | 'source'>>();
+  const runStatusTime = (history: RunStatusHistory) => {
+    const cached = byTag.get(history.tag.id);
+    if (cached) return cached;
+    const windowHours = hoursOf(from, to);
+    const until = history.dataUntil && history.dataUntil < to ? history.dataUntil : to;
+    let time: Omit<UnitTime, 'asset' | 'source'>;
+    if (!history.dataFrom || !history.dataUntil || history.dataUntil <= from || history.dataFrom >= to) {
+      time = {
+        tag: history.tag.name,
+        hours: 0,
+        uptimeHours: 0,
+        downtimeHours: 0,
+        unknownHours: windowHours,
+        windowHours,
+        outOfService: [],
+        notes: [`${history.tag.name} has no good run-status data in the window: no operating time is counted.`],
+      };
+    } else {
+      const r = operatingTimeFromRunStatus(history.samples, { from, to: until }, { tag: history.tag.name, priorSample: history.priorSample });
+      const unknownHours = r.unknownHours + hoursOf(until, to);
+      time = {
+        tag: history.tag.name,
+        hours: r.hours,
+        uptimeHours: r.uptimeHours,
+        downtimeHours: r.downtimeHours,
+        unknownHours,
+        windowHours,
+        outOfService: [],
+        notes:
+          unknownHours > 0
+            ? [`${history.tag.name} has run-status data from ${history.dataFrom.toISOString()} to ${history.dataUntil.toISOString()}: ${round(unknownHours)} h of the window are of unknown state and not counted.`]
+            : [],
+      };
+    }
+    byTag.set(history.tag.id, time);
+    return time;
+  };
+
+  const calendarOrders = new Set<string>();
+  const unitTime = (a: AssetRecord): UnitTime => {
+    const t = tagFor(a);
+    if (t) return { asset: a.code, source: t.source, ...runStatusTime(histories.get(t.tag.id)!) };
+    const below = new Set(subtree(assets, a).map((x) => x.id));
+    const oos: OutOfServiceWindow[] = orders
+      .filter((wo) => below.has(wo.assetId) && wo.status !== 'cancelled' && wo.outOfServiceFrom && wo.outOfServiceTo)
+      .map((wo) => ({ from: wo.outOfServiceFrom!, to: wo.outOfServiceTo!, ref: wo.woNumber }));
+    const r = operatingTimeFromCalendar(window, oos);
+    for (const ref of r.outOfServiceRefs) calendarOrders.add(ref);
+    return {
+      asset: a.code,
+      source: r.source,
+      tag: null,
+      hours: r.hours,
+      uptimeHours: r.uptimeHours,
+      downtimeHours: r.downtimeHours,
+      unknownHours: 0,
+      windowHours: r.windowHours,
+      outOfService: r.outOfServiceRefs,
+      notes: [`${a.code} and its ancestors have no run-status tag: operating time is calendar time less out-of-service windows.`, ...r.notes],
+    };
+  };
+
+  const idsOf = (list: AssetRecord[]) => new Set(list.map((a) => a.id));
+  const failuresIn = (ids: Set<number>) => failures.filter((wo) => ids.has(wo.assetId));
+
+  // Top level: the asset, or the sum over the site's top-level assets.
+  const topUnits = asset ? [unitTime(asset)] : assets.filter((a) => a.parentId === null).map(unitTime);
+  const top = figuresOf(asset?.code ?? null, codes, topUnits, failuresIn(idsOf(inScope)), query.confidence);
+  if (!asset && topUnits.length > 1) {
+    top.notes.unshift(`Whole site: operating time is the sum over its ${topUnits.length} top-level assets (${topUnits.map((u) => `${u.asset} ${u.source}`).join(', ')}).`);
+  }
+
+  const groups: ReliabilityGroupAnswer[] = [];
+  if (query.groupBy === 'asset') {
+    const withFailures = new Set(failures.map((wo) => wo.assetId));
+    for (const a of inScope) {
+      if (!withFailures.has(a.id) && !runTagOf.has(a.id)) continue;
+      const below = subtree(assets, a);
+      groups.push({ key: `asset=${a.code}`, ...figuresOf(a.code, below.map((x) => x.code), [unitTime(a)], failuresIn(idsOf(below)), query.confidence) });
+    }
+  } else if (query.groupBy === 'kind') {
+    const kinds = [...new Set(inScope.map((a) => a.kind))].sort();
+    for (const kind of kinds) {
+      const members = inScope.filter((a) => a.kind === kind);
+      groups.push({ key: `kind=${kind}`, ...figuresOf(null, members.map((a) => a.code), members.map(unitTime), failuresIn(idsOf(members)), query.confidence) });
+    }
+  }
+
+  // Provenance: the failures, the orders whose out-of-service time was subtracted, tags and windows used.
+  const provenanceNotes: string[] = [];
+  const usedOrders = orders.filter((wo) => failures.includes(wo) || calendarOrders.has(wo.woNumber));
+  const usedTags = [...new Set([...topUnits, ...groups.flatMap((g) => g.operatingTime.units)].map((u) => u.tag).filter((t): t is string => t !== null))];
+  const windows: Provenance['windows'] = [{ from: from.toISOString(), to: to.toISOString(), what: 'window' }];
+  for (const h of histories.values()) {
+    if (usedTags.includes(h.tag.name) && h.dataFrom && h.dataUntil) {
+      windows.push({ from: h.dataFrom.toISOString(), to: h.dataUntil.toISOString(), what: `run-status data of ${h.tag.name}` });
+    }
+  }
+  for (const wo of usedOrders) {
+    if (wo.outOfServiceFrom && wo.outOfServiceTo) {
+      windows.push({ from: wo.outOfServiceFrom.toISOString(), to: wo.outOfServiceTo.toISOString(), what: `out of service ${wo.woNumber}` });
+    }
+  }
+  const provenance: Provenance = {
+    workOrders: capped(
+      usedOrders.map((wo) => wo.woNumber),
+      'work orders',
+      provenanceNotes,
+    ),
+    tags: usedTags,
+    windows: capped(windows, 'windows', provenanceNotes),
+  };
+  return {
+    ...header,
+    from: from.toISOString(),
+    to: to.toISOString(),
+    ...top,
+    notes: [...notes, ...top.notes, ...provenanceNotes],
+    groups,
+    provenance,
+  };
+}
