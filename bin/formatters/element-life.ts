@@ -19,7 +19,8 @@ export function formatElementLife(report: ElementLifeReport): string {
         g.key,
         g.n,
         g.events,
-        g.weibull?.shape ?? null,
+        // Shape to three decimals (a string, so the table does not round it to two).
+        g.weibull ? formatNumber(g.weibull.shape, 3) : null,
         g.weibull?.shapeLower === undefined ? null : `${formatNumber(g.weibull.shapeLower)}–${g.weibull.shapeUpper == null ? '∞' : formatNumber(g.weibull.shapeUpper)}`,
         g.weibull?.scaleDays ?? null,
         g.b10Days,

@@ -21,7 +21,10 @@ export function formatMaintenanceMix(report: MaintenanceMixReport): string {
   ];
   const lines = [
     `Maintenance mix${report.site ? ` — site ${report.site}` : ''}${report.asset ? `, asset ${report.asset}` : ''}, ${report.from} to ${report.to}`,
-    formatTable(['figure', 'value', 'why missing'], rows),
+    formatTable(
+      ['figure', 'value', 'why missing'],
+      rows.map(([label, value, reason]) => [label, value, reason ?? '']),
+    ),
   ];
   for (const note of report.notes) lines.push(`Note: ${note}`);
   return lines.join('\n');

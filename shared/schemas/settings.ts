@@ -1,29 +1,46 @@
 import { z } from 'zod';
 
-/**
- * Plant-wide settings an admin can change. Defaults are DESIGN.md §6's (normalization constants:
- * common practice; alert levels: common practice, flow −10 %, ΔP +15 %, salt passage +5 %).
- */
-export const settingsSchema = z.object({
-  currency: z.string().trim().min(1).max(8).default('EUR'),
-  waterValuePerM3: z.number().nonnegative().default(0.85),
-  elementUnitCost: z.number().nonnegative().default(620),
-  crewHoursPerWeek: z.number().positive().default(160),
-  confidence: z.number().gt(0.5).lt(1).default(0.9),
-  tdsPerMicroSiemens: z.number().positive().default(0.67),
-  osmoticBarPerMgL: z.number().positive().default(0.000689475729),
-  tcfUBelow25K: z.number().positive().default(3020),
-  tcfUAbove25K: z.number().positive().default(2640),
-  alertFlowDropPct: z.number().positive().max(100).default(10),
-  alertDpRisePct: z.number().positive().max(500).default(15),
-  alertSaltPassageRisePct: z.number().positive().max(500).default(5),
-  digestRecipients: z.array(z.email()).default([]),
-});
+const settingFields = {
+  currency: z.string().trim().min(1).max(8),
+  waterValuePerM3: z.number().nonnegative(),
+  elementUnitCost: z.number().nonnegative(),
+  crewHoursPerWeek: z.number().positive(),
+  confidence: z.number().gt(0.5).lt(1),
+  tdsPerMicroSiemens: z.number().positive(),
+  osmoticBarPerMgL: z.number().positive(),
+  tcfUBelow25K: z.number().positive(),
+  tcfUAbove25K: z.number().positive(),
+  alertFlowDropPct: z.number().positive().max(100),
+  alertDpRisePct: z.number().positive().max(500),
+  alertSaltPassageRisePct: z.number().positive().max(500),
+  digestRecipients: z.array(z.email()),
+};
+
+/** Plant-wide settings an admin can change; every key always has a value. */
+export const settingsSchema = z.object(settingFields);
 export type Settings = z.infer<typeof settingsSchema>;
 export type SettingKey = keyof Settings;
 
-export const settingsDefaults: Settings = settingsSchema.parse({});
+/**
+ * Defaults: DESIGN.md §6 (normalization constants: common practice; alert levels: common practice,
+ * flow −10 %, ΔP +15 %, salt passage +5 %); costs are the demo plant's invented figures.
+ */
+export const settingsDefaults: Settings = {
+  currency: 'EUR',
+  waterValuePerM3: 0.85,
+  elementUnitCost: 620,
+  crewHoursPerWeek: 160,
+  confidence: 0.9,
+  tdsPerMicroSiemens: 0.67,
+  osmoticBarPerMgL: 0.000689475729,
+  tcfUBelow25K: 3020,
+  tcfUAbove25K: 2640,
+  alertFlowDropPct: 10,
+  alertDpRisePct: 15,
+  alertSaltPassageRisePct: 5,
+  digestRecipients: [],
+};
 
-/** PUT /api/settings: any subset of the keys; unknown keys are refused. */
-export const settingsUpdateBodySchema = settingsSchema.partial().strict();
+/** PUT /api/settings: any subset of the keys, nothing filled in; unknown keys are refused. */
+export const settingsUpdateBodySchema = z.object(settingFields).partial().strict();
 export type SettingsUpdateBody = z.infer<typeof settingsUpdateBodySchema>;

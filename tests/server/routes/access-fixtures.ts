@@ -50,5 +50,9 @@ export async function accessFixtures(t: TestApp): Promise<Record<string, Fixture
     'GET /api/imports': { method: 'get', url: '/api/imports' },
     'GET /api/imports/:id': { method: 'get', url: `/api/imports/${record.id}` },
     'GET /api/imports/:id/rejects.csv': { method: 'get', url: `/api/imports/${record.id}/rejects.csv` },
+    'GET /api/kpi/element-life': { method: 'get', url: '/api/kpi/element-life?site=ACC&groupBy=position' },
+    'GET /api/kpi/forecast': { method: 'get', url: '/api/kpi/forecast?site=ACC' },
+    'GET /api/kpi/time-to-complete': { method: 'get', url: '/api/kpi/time-to-complete?site=ACC' },
+    'GET /api/kpi/maintenance-mix': { method: 'get', url: '/api/kpi/maintenance-mix?site=ACC' },
   };
 }

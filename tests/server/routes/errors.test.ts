@@ -59,6 +59,10 @@ describe('errors have one shape and lose nothing', () => {
     const read = await request(t.app).get('/api/settings').set('Cookie', t.cookies.finance);
     expect(read.body.waterValuePerM3).toBe(1.25);
     expect(read.body.alertFlowDropPct).toBe(10);
+    // Changing one key leaves the others as they were (no defaults written back).
+    await request(t.app).put('/api/settings').set('Cookie', t.cookies.admin).send({ currency: 'USD' }).expect(200);
+    const after = await request(t.app).get('/api/settings').set('Cookie', t.cookies.admin);
+    expect([after.body.currency, after.body.waterValuePerM3]).toEqual(['USD', 1.25]);
   });
 });
 

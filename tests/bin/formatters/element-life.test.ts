@@ -1,0 +1,48 @@
+import { describe, expect, it } from 'vitest';
+import { elementLifeReportSchema } from '#shared/schemas/kpi.ts';
+import { formatElementLife } from '#bin/formatters/element-life.ts';
+
+// Figures of the Lieblein & Zelen (1956) ball-bearing fit (reference/checks.json), as days.
+const report = elementLifeReportSchema.parse({
+  site: 'LZ',
+  from: '2020-01-01T00:00:00.000Z',
+  to: '2021-01-01T00:00:00.000Z',
+  confidence: 0.9,
+  groupBy: 'position',
+  groups: [
+    {
+      key: 'position=1',
+      n: 23,
+      events: 23,
+      weibull: { shape: 2.102058875, scaleDays: 81.87833405, shapeLower: 1.55, shapeUpper: 2.71 },
+      b10Days: 28.06941401,
+      medianDays: 68.77741335,
+      meanDays: 72.51865178,
+      kmMedianDays: 67.8,
+      km: [{ tDays: 17.88, survival: 22 / 23 }],
+    },
+    { key: 'position=2', n: 2, events: 0, weibull: null, b10Days: null, medianDays: null, meanDays: null, kmMedianDays: null, km: [], reasons: { weibull: 'no-events' } },
+  ],
+});
+
+describe('formatElementLife', () => {
+  const text = formatElementLife(report);
+  const rows = text.split('\n');
+
+  it('prints one row per group with n, events, shape, scale, B10, median and mean, units in the headers', () => {
+    expect(text).toMatch(/shape β.*scale η \(d\).*B10 \(d\).*median \(d\).*mean \(d\)/);
+    const row = rows.find((l) => l.includes('position=1'))!;
+    const cells = row.split('│').map((c) => c.trim()).filter(Boolean);
+    expect(cells).toEqual(['position=1', '23', '23', '2.102', '1.55–2.71', '81.88', '28.07', '68.78', '72.52', '67.8']);
+  });
+
+  it('shows a missing fit as dashes and says why', () => {
+    const cells = rows.find((l) => l.includes('position=2'))!.split('│').map((c) => c.trim()).filter(Boolean);
+    expect(cells.slice(0, 4)).toEqual(['position=2', '2', '0', '—']);
+    expect(text).toContain('position=2: no Weibull fit — Every life is censored');
+  });
+
+  it('states the window and the grouping', () => {
+    expect(rows[0]).toBe('Element life — site LZ, grouped by position, installed 2020-01-01T00:00:00.000Z to 2021-01-01T00:00:00.000Z');
+  });
+});
