@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
+import compression from 'compression';
 import cookieParser from 'cookie-parser';
 import express, { type ErrorRequestHandler, type Express } from 'express';
 import helmet from 'helmet';
@@ -48,6 +49,7 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): Express & { 
     if (deps.env.LOG_REQUESTS) res.on('finish', () => log(`${req.method} ${req.originalUrl} ${res.statusCode} ${id}`));
     next();
   });
+  app.use(compression());
   app.use(express.json({ limit: '1mb' }));
   app.use(cookieParser());
   app.use('/api', authenticate(deps.db, deps.sessionKey));

@@ -42,7 +42,10 @@ const offsetPattern = /(Z|[+-]\d{2}(:?\d{2})?)$/i;
 class CopyWriter {
   // Appending to one string is cheaper in V8 than collecting parts and joining (measured).
   private text = '';
-  constructor(private readonly stream: Writable) {}
+  constructor(
+    private readonly stream: Writable,
+    private readonly failed: () => Error | undefined,
+  ) {}
   push(line: string) {
     this.text += line;
   }
@@ -50,6 +53,8 @@ class CopyWriter {
     if (this.text.length >= 256 * 1024) await this.flush();
   }
   async flush(): Promise<void> {
+    const err = this.failed();
+    if (err) throw err;
     if (this.text.length === 0) return;
     const chunk = this.text;
     this.text = '';
@@ -61,6 +66,8 @@ class CopyWriter {
     });
   }
   end(): Promise<void> {
+    const err = this.failed();
+    if (err) return Promise.reject(err);
     return new Promise((resolve, reject) => {
       this.stream.once('finish', resolve);
       this.stream.once('error', reject);
@@ -101,7 +108,10 @@ export async function importHistorian(ctx: KindContext): Promise<KindResult> {
   ctx.notes.layout = long ? 'long' : 'wide';
 
   const copy = client.query(copyFrom('copy samples (tag_id, ts, value, quality) from stdin'));
-  const writer = new CopyWriter(copy);
+  // A lost connection errors the stream at any moment: keep it, and fail at the next write.
+  let copyError: Error | undefined;
+  copy.on('error', (err: Error) => (copyError ??= err));
+  const writer = new CopyWriter(copy, () => copyError);
   const touched: TagInfo[] = [];
   let rowsRead = 0;
   let samples = 0;

@@ -150,6 +150,12 @@ export async function runImport(db: Db, opts: ImportOptions): Promise<ImportReco
   }
 
   const client = await db.$client.connect();
+  // A connection cut mid-import errors the client; the failing query reports it, so only listen.
+  let broken = false;
+  const onClientError = () => {
+    broken = true;
+  };
+  client.on('error', onClientError);
   let importId: number | null = null;
   const rejects = new RejectSink();
   const notes: Record<string, unknown> = {};
@@ -235,7 +241,8 @@ export async function runImport(db: Db, opts: ImportOptions): Promise<ImportReco
     }
   } finally {
     if (importId !== null) await client.query('select pg_advisory_unlock(2, $1)', [importId]).catch(() => undefined);
-    client.release();
+    client.off('error', onClientError);
+    client.release(broken);
   }
   return (await getImport(db.$client, importId!))!;
 }

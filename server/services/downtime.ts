@@ -135,7 +135,7 @@ export function capped<T>(list: T[], what: string, notes: string[]): T[] {
 type DowntimeTotal = DowntimeReport['totals'][number];
 
 /** Downtime report with the asset whose rating gave each total's lost volume. */
-export type DowntimeAnswer = DowntimeReport & {
+export type DowntimeAnswer = Omit<DowntimeReport, 'totals' | 'provenance'> & {
   totals: (DowntimeTotal & { ratedPermeateFrom: string | null })[];
   provenance: Provenance;
 };

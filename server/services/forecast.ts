@@ -210,7 +210,7 @@ export async function getForecast(db: Db, query: ForecastQuery): Promise<Forecas
     groups,
     totals,
     inService: inService.length,
-    cautions: vesselWorkCautions,
+    cautions: [...vesselWorkCautions],
     notes,
     provenance,
   };

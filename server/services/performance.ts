@@ -14,6 +14,7 @@ import type { PerformanceQuery, PerformanceReport } from '#shared/schemas/kpi-op
 import type { Settings } from '#shared/schemas/settings.ts';
 import type { Db } from '../db/client.ts';
 import type { AssetRecord } from '../db/queries/assets.ts';
+import { tagsAwaitingRefresh } from '../db/queries/dirty-hours.ts';
 import { listElementInstalls } from '../db/queries/elements.ts';
 import { dailyMeansWhileRunning } from '../db/queries/sample-hourly.ts';
 import { listTags, type TagRow } from '../db/queries/tags.ts';
@@ -49,7 +50,7 @@ type Stage = PerformanceReport['stages'][number];
 type Point = Stage['points'][number];
 
 /** One stage's answer, with what it was computed from and, when it has no figures, why. */
-export type PerformanceStageAnswer = Stage & {
+export type PerformanceStageAnswer = Omit<Stage, 'points'> & {
   points: (Point & { runningHours: number })[];
   runStatusTag: string | null;
   tags: string[];
@@ -59,7 +60,7 @@ export type PerformanceStageAnswer = Stage & {
   reason: string | null;
 };
 
-export type PerformanceAnswer = PerformanceReport & {
+export type PerformanceAnswer = Omit<PerformanceReport, 'stages'> & {
   stages: PerformanceStageAnswer[];
   notes: string[];
   provenance: Provenance;
@@ -227,6 +228,9 @@ export async function getPerformance(db: Db, query: PerformanceQuery): Promise<P
   }
   const provenanceNotes: string[] = [];
   provenance.tags = [...new Set(provenance.tags)];
+  const usedIds = [...tagsByAsset.values()].flat().filter((tag) => provenance.tags.includes(tag.name)).map((tag) => tag.id);
+  const stale = await tagsAwaitingRefresh(db.$client, usedIds);
+  if (stale.length > 0) notes.push(`Imported data of ${stale.length} tag(s) used here awaits \`osmia refresh\`: the hourly means may be out of date.`);
   provenance.workOrders = capped([...new Set(provenance.workOrders)], 'work orders', provenanceNotes);
   provenance.elements = capped([...new Set(provenance.elements)], 'element serials', provenanceNotes);
   return { ...header, stages: answers, notes: [...notes, ...provenanceNotes], provenance };

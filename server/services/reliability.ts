@@ -37,8 +37,6 @@ interface UnitTime {
   downtimeHours: number;
   unknownHours: number;
   windowHours: number;
-  /** Work orders whose out-of-service windows were subtracted (calendar fallback). */
-  outOfService: string[];
   notes: string[];
 }
 
@@ -62,7 +60,7 @@ type Figures = Omit<ReliabilityReport, 'site' | 'from' | 'to' | 'confidence' | '
 };
 
 export type ReliabilityGroupAnswer = Figures & { key: string };
-export type ReliabilityAnswer = ReliabilityReport &
+export type ReliabilityAnswer = Omit<ReliabilityReport, 'groups' | 'provenance'> &
   Figures & {
     groups: ReliabilityGroupAnswer[];
     provenance: Provenance;
@@ -288,7 +286,6 @@ export async function getReliability(db: Db, query: ReliabilityQuery): Promise<R
         downtimeHours: 0,
         unknownHours: windowHours,
         windowHours,
-        outOfService: [],
         notes: [`${history.tag.name} has no good run-status data in the window: no operating time is counted.`],
       };
     } else {
@@ -301,7 +298,6 @@ export async function getReliability(db: Db, query: ReliabilityQuery): Promise<R
         downtimeHours: r.downtimeHours,
         unknownHours,
         windowHours,
-        outOfService: [],
         notes:
           unknownHours > 0
             ? [`${history.tag.name} has run-status data from ${history.dataFrom.toISOString()} to ${history.dataUntil.toISOString()}: ${round(unknownHours)} h of the window are of unknown state and not counted.`]
@@ -331,7 +327,6 @@ export async function getReliability(db: Db, query: ReliabilityQuery): Promise<R
       downtimeHours: r.downtimeHours,
       unknownHours: 0,
       windowHours: r.windowHours,
-      outOfService: r.outOfServiceRefs,
       notes: [`${a.code} and its ancestors have no run-status tag: operating time is calendar time less out-of-service windows.`, ...r.notes],
     };
   };

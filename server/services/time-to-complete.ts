@@ -75,12 +75,15 @@ function bucketOut(b: LearningBucket) {
  */
 export async function getTimeToComplete(db: Db, query: TimeToCompleteQuery): Promise<TimeToCompleteAnswer> {
   const scope = await resolveScope(db, query);
+  // The default window is "the whole range of the data", but the site's data extent (scope.ts) does
+  // not look at job steps: a still-open work order's steps can come after it. So a bound the query
+  // did not give stays open here, and the answer's window is widened to the jobs found.
   const rows = await listJobStepsWithOrders(
     db.$client,
     scope.site.id,
     scope.inScope.map((a) => a.id),
-    scope.from,
-    scope.to,
+    query.from ? scope.from : null,
+    query.to ? scope.to : null,
   );
   const steps: JobStepRow[] = rows.map((r) => ({
     woNumber: r.woNumber,
@@ -95,6 +98,15 @@ export async function getTimeToComplete(db: Db, query: TimeToCompleteQuery): Pro
   const starts = new Map<string, number>();
   for (const r of rows) starts.set(r.woNumber, Math.min(starts.get(r.woNumber) ?? Infinity, r.startedAt.getTime()));
   const firstStarts = [...starts.values()];
+  let from = scope.from;
+  let to = scope.to;
+  if (firstStarts.length > 0) {
+    const first = Math.min(...firstStarts);
+    const last = Math.max(...firstStarts);
+    if (!query.from && (from === null || first < from.getTime())) from = new Date(first);
+    // Half-open [from, to): one second past the last start, as the site's data extent does.
+    if (!query.to && (to === null || last >= to.getTime())) to = new Date(last + 1000);
+  }
   const periods =
     firstStarts.length === 0
       ? []
@@ -124,15 +136,12 @@ export async function getTimeToComplete(db: Db, query: TimeToCompleteQuery): Pro
     workOrders: numbers.slice(0, provenanceWorkOrderCap),
     workOrderCount: numbers.length,
     tags: [],
-    windows:
-      scope.from && scope.to
-        ? [{ from: scope.from.toISOString(), to: scope.to.toISOString(), what: "jobs whose first step started in this window" }]
-        : [],
+    windows: from && to ? [{ from: from.toISOString(), to: to.toISOString(), what: 'jobs whose first step started in this window' }] : [],
   };
   return {
     site: scope.site.code,
-    from: scope.from?.toISOString() ?? null,
-    to: scope.to?.toISOString() ?? null,
+    from: from?.toISOString() ?? null,
+    to: to?.toISOString() ?? null,
     quantileMethod: result.quantileMethod,
     groups,
     jobs: result.jobs.map((j) => ({
@@ -148,7 +157,7 @@ export async function getTimeToComplete(db: Db, query: TimeToCompleteQuery): Pro
     skipped: result.skipped,
     learningCurve: { byPeriod: result.learningCurve.byPeriod.map(bucketOut), bySequence: result.learningCurve.bySequence.map(bucketOut) },
     procedureDefinition,
-    cautions: vesselWorkCautions,
+    cautions: [...vesselWorkCautions],
     provenance,
   };
 }

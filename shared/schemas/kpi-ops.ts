@@ -119,6 +119,11 @@ export const performanceStageSchema = z.object({
   notes: z.array(z.string()),
   /** Element changes and cleanings considered for the baseline. */
   resets: z.array(isoInstantSchema).optional(),
+  runStatusTag: z.string().nullable().optional(),
+  tags: z.array(z.string()).optional(),
+  /** Quantities the stage has no tag for (then its figures are null). */
+  missingQuantities: z.array(z.string()).optional(),
+  reason: z.string().nullable().optional(),
 });
 
 export const performanceReportSchema = z.object({
@@ -126,6 +131,7 @@ export const performanceReportSchema = z.object({
   from: isoInstantSchema.nullable(),
   to: isoInstantSchema.nullable(),
   stages: z.array(performanceStageSchema),
+  notes: z.array(z.string()).optional(),
   provenance: provenanceSchema.optional(),
 });
 export type PerformanceReport = z.infer<typeof performanceReportSchema>;

@@ -65,6 +65,11 @@ export const provenanceSchema = z.object({
   elements: z.array(z.string()).optional(),
   /** Import ids whose rows were used. */
   imports: z.array(z.union([z.string(), z.number()])).optional(),
+  /** Totals when a list above was capped. */
+  elementCount: count.optional(),
+  workOrderCount: count.optional(),
+  /** Trains whose data was used (maintenance mix: produced volume). */
+  trains: z.array(z.string()).optional(),
 });
 export type Provenance = z.infer<typeof provenanceSchema>;
 
@@ -113,6 +118,19 @@ export const reliabilityReportSchema = reliabilityFiguresSchema.extend({
   sides: z.enum(['two-sided', 'one-sided-lower']).optional(),
   terminated: z.enum(['time', 'failure']).optional(),
   groups: z.array(reliabilityGroupSchema).optional(),
+  /** How the operating time was made up: per top-level unit, its source and hours. */
+  operatingTime: z
+    .object({
+      windowHours: hours,
+      uptimeHours: hours,
+      downtimeHours: hours,
+      unknownHours: hours,
+      units: z.array(z.object({ asset: z.string(), source: operatingTimeSourceSchema, tag: z.string().nullable().optional(), hours })),
+    })
+    .optional(),
+  /** How each failure's restoration time was found. */
+  mttrBasis: z.object({ outOfServiceWindow: count, completedLessReported: count, unknown: count }).optional(),
+  notes: z.array(z.string()).optional(),
   provenance: provenanceSchema.optional(),
 });
 export type ReliabilityReport = z.infer<typeof reliabilityReportSchema>;
@@ -213,6 +231,8 @@ export const forecastMonthSchema = forecastFiguresSchema.extend({
   label: z.string(),
   from: isoInstantSchema,
   to: isoInstantSchema,
+  /** The rest of the month the forecast starts in. */
+  partial: z.boolean().optional(),
 });
 
 export const forecastGroupSchema = z.object({
@@ -224,6 +244,8 @@ export const forecastGroupSchema = z.object({
   total: forecastFiguresSchema,
   elements: z.array(z.object({ serial: z.string(), ageDays: days, probability: fraction })).optional(),
   reasons: reasonsSchema.optional(),
+  /** 'own' fit of the group, or the pooled fit of every life in scope when the group has none. */
+  fitSource: z.string().optional(),
 });
 
 export const forecastReportSchema = z.object({
@@ -246,6 +268,11 @@ export const forecastReportSchema = z.object({
       expectedCost: z.number().nonnegative(),
     }),
   ),
+  /** Elements in service at the forecast start. */
+  inService: count.optional(),
+  notes: z.array(z.string()).optional(),
+  /** Replacing elements means opening pressure vessels: the usual cautions (shared/cautions.ts). */
+  cautions: z.array(z.string()).optional(),
   provenance: provenanceSchema.optional(),
 });
 export type ForecastReport = z.infer<typeof forecastReportSchema>;
@@ -308,6 +335,10 @@ export const timeToCompleteReportSchema = z.object({
   learningCurve: z
     .object({ byPeriod: z.array(learningBucketSchema), bySequence: z.array(learningBucketSchema) })
     .optional(),
+  /** How a job's procedure is named. */
+  procedureDefinition: z.string().optional(),
+  /** Element-replacement jobs are vessel work: the usual cautions (shared/cautions.ts). */
+  cautions: z.array(z.string()).optional(),
   provenance: provenanceSchema.optional(),
 });
 export type TimeToCompleteReport = z.infer<typeof timeToCompleteReportSchema>;

@@ -26,13 +26,14 @@ export async function requireUser(queryClient: QueryClient, request: Request): P
 /**
  * Loader of a page of the navigation table: signs the person in first, then warms the page's data
  * (the same queryOptions its components read) when the role may open it. A refused role loads
- * nothing; the page shows <RequirePage>'s panel instead.
+ * nothing; the page shows <RequirePage>'s panel instead. `url` is the address asked for: the KPI pages
+ * read their window and filters from its search parameters.
  */
-export function pageLoader(queryClient: QueryClient, page: PageId, prefetch: (user: User) => Promise<unknown>[] = () => []) {
+export function pageLoader(queryClient: QueryClient, page: PageId, prefetch: (user: User, url: URL) => Promise<unknown>[] = () => []) {
   return async ({ request }: { request: Request }) => {
     const user = await requireUser(queryClient, request);
     // prefetchQuery never throws: a failed fetch shows in the section's error boundary, not as a blank page.
-    if (canOpen(user.role, page)) await Promise.all(prefetch(user));
+    if (canOpen(user.role, page)) await Promise.all(prefetch(user, new URL(request.url)));
     return null;
   };
 }

@@ -33,6 +33,37 @@ export function createAppRouter(queryClient: QueryClient) {
             import('./routes/dashboard.tsx').then((m) => ({ loader: m.createDashboardLoader(queryClient), Component: m.DashboardRoute })),
         },
         {
+          path: relative(pageById('reliability').path),
+          lazy: () =>
+            import('./routes/reliability.tsx').then((m) => ({ loader: m.createReliabilityLoader(queryClient), Component: m.ReliabilityRoute })),
+        },
+        {
+          path: relative(pageById('element-life').path),
+          lazy: () =>
+            import('./routes/element-life.tsx').then((m) => ({ loader: m.createElementLifeLoader(queryClient), Component: m.ElementLifeRoute })),
+        },
+        {
+          path: relative(pageById('time-to-complete').path),
+          lazy: () =>
+            import('./routes/time-to-complete.tsx').then((m) => ({
+              loader: m.createTimeToCompleteLoader(queryClient),
+              Component: m.TimeToCompleteRoute,
+            })),
+        },
+        {
+          path: relative(pageById('downtime').path),
+          lazy: () => import('./routes/downtime.tsx').then((m) => ({ loader: m.createDowntimeLoader(queryClient), Component: m.DowntimeRoute })),
+        },
+        {
+          path: relative(pageById('performance').path),
+          lazy: () =>
+            import('./routes/performance.tsx').then((m) => ({ loader: m.createPerformanceLoader(queryClient), Component: m.PerformanceRoute })),
+        },
+        {
+          path: relative(pageById('imports').path),
+          lazy: () => import('./routes/imports.tsx').then((m) => ({ loader: m.createImportsLoader(queryClient), Component: m.ImportsRoute })),
+        },
+        {
           path: relative(pageById('users').path),
           lazy: () => import('./routes/users.tsx').then((m) => ({ loader: m.createUsersLoader(queryClient), Component: m.UsersRoute })),
         },

@@ -23,13 +23,12 @@ const readersOfKpis: readonly Role[] = ['admin', 'engineer', 'manager'];
 
 export const pages = [
   { id: 'dashboard', path: '/', label: 'Dashboard', roles: everyone, ready: true },
-  { id: 'reliability', path: '/reliability', label: 'Reliability', roles: readersOfKpis, ready: false },
-  { id: 'element-life', path: '/element-life', label: 'Element life & forecast', roles: everyone, ready: false },
-  { id: 'time-to-complete', path: '/time-to-complete', label: 'Jobs / time to complete', roles: readersOfKpis, ready: false },
-  { id: 'downtime', path: '/downtime', label: 'Downtime', roles: everyone, ready: false },
-  { id: 'performance', path: '/performance', label: 'Membrane performance', roles: readersOfKpis, ready: false },
-  { id: 'imports', path: '/imports', label: 'Imports', roles: ['admin', 'engineer'], ready: false },
-  { id: 'reports', path: '/reports', label: 'Reports', roles: everyone, ready: false },
+  { id: 'reliability', path: '/reliability', label: 'Reliability', roles: readersOfKpis, ready: true },
+  { id: 'element-life', path: '/element-life', label: 'Element life & forecast', roles: everyone, ready: true },
+  { id: 'time-to-complete', path: '/time-to-complete', label: 'Jobs / time to complete', roles: readersOfKpis, ready: true },
+  { id: 'downtime', path: '/downtime', label: 'Downtime', roles: everyone, ready: true },
+  { id: 'performance', path: '/performance', label: 'Membrane performance', roles: readersOfKpis, ready: true },
+  { id: 'imports', path: '/imports', label: 'Imports', roles: ['admin', 'engineer'], ready: true },
   { id: 'users', path: '/users', label: 'Users', roles: ['admin'], ready: true },
   { id: 'settings', path: '/settings', label: 'Settings', roles: everyone, editRoles: ['admin'], ready: true },
 ] as const satisfies readonly PageEntry[];

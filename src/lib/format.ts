@@ -34,3 +34,62 @@ export function formatDuration(seconds: number): string {
   }
   return parts.join(' ');
 }
+
+const dateOnly = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' });
+
+/** An ISO 8601 instant as a local calendar date ("3 Mar 2026"); null and unparsable values read "—". */
+export function formatDate(iso: string | null | undefined): string {
+  if (!iso) return '—';
+  const date = new Date(iso);
+  return Number.isNaN(date.getTime()) ? '—' : dateOnly.format(date);
+}
+
+/** A value and its unit ("259.2 h"); null reads "—". */
+function withUnit(value: number | null | undefined, unit: string, maxDigits: number): string {
+  const text = formatNumber(value, maxDigits);
+  return text === '—' ? text : `${text} ${unit}`;
+}
+
+/** Hours, in the API's unit: "259.2 h". */
+export function formatHours(hours: number | null | undefined, maxDigits = 1): string {
+  return withUnit(hours, 'h', maxDigits);
+}
+
+/** Days, in the API's unit: "1,297 d". */
+export function formatDays(days: number | null | undefined, maxDigits = 0): string {
+  return withUnit(days, 'd', maxDigits);
+}
+
+/** A volume in cubic metres: "24,525 m³". */
+export function formatVolume(m3: number | null | undefined, maxDigits = 0): string {
+  return withUnit(m3, 'm³', maxDigits);
+}
+
+/**
+ * An amount in the plant's currency (settings.currency). An ISO 4217 code gets the locale's currency
+ * format ("€20,846"); any other text the setting allows (1–8 characters) follows the number.
+ */
+export function formatMoney(value: number | null | undefined, currency: string, maxDigits = 0): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return '—';
+  if (/^[A-Z]{3}$/.test(currency)) {
+    try {
+      return new Intl.NumberFormat(undefined, { style: 'currency', currency, maximumFractionDigits: maxDigits, minimumFractionDigits: 0 }).format(value);
+    } catch {
+      // Not a code Intl knows: fall through to "number code".
+    }
+  }
+  return `${formatNumber(value, maxDigits)} ${currency}`;
+}
+
+/** A fraction 0–1 as a percentage: 0.9717 → "97.2 %". */
+export function formatShare(fraction: number | null | undefined, maxDigits = 1): string {
+  return withUnit(fraction === null || fraction === undefined ? fraction : fraction * 100, '%', maxDigits);
+}
+
+/** A change already in percent, always signed: 5.25 → "+5.3 %", −10 → "−10 %". */
+export function formatChangePct(pct: number | null | undefined, maxDigits = 1): string {
+  if (pct === null || pct === undefined || !Number.isFinite(pct)) return '—';
+  const text = formatNumber(Math.abs(pct), maxDigits);
+  const sign = text === '0' ? '' : pct > 0 ? '+' : '−';
+  return `${sign}${text} %`;
+}

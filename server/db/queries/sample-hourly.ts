@@ -45,21 +45,22 @@ export interface DailyMeansQuery {
 /**
  * Daily means of hourly means (each qualifying hour weighs the same) of the required and optional tags,
  * over the whole hours in [from, to) when the run-status tag's hourly minimum is 1 and every required tag
- * has a good sample.
+ * has a good sample. One pass over the rollups of these tags (window functions, no self-join), so the plan
+ * does not depend on fresh statistics.
  */
 export async function dailyMeansWhileRunning(q: Queryable, query: DailyMeansQuery): Promise<DailyMeanRow[]> {
   const { rows } = await q.query<DailyMeanRow>(
-    `with running as (
-       select hour from sample_hourly
-       where tag_id = $1 and hour >= $4::timestamptz and hour <= $5::timestamptz - interval '1 hour' and min >= 1),
-     complete as (
-       select h.hour from sample_hourly h join running r on r.hour = h.hour
-       where h.tag_id = any($2::int[]) and h.hour >= $4::timestamptz and h.hour < $5::timestamptz
-       group by h.hour having count(distinct h.tag_id) = cardinality($2::int[]))
-     select date_trunc('day', h.hour at time zone $6::text) at time zone $6::text as "day", h.tag_id as "tagId",
-            avg(h.mean) as "mean", count(*)::int as "hours"
-     from sample_hourly h join complete c on c.hour = h.hour
-     where h.tag_id = any($2::int[] || $3::int[]) and h.hour >= $4::timestamptz and h.hour < $5::timestamptz
+    `select date_trunc('day', hour at time zone $6::text) at time zone $6::text as "day", tag_id as "tagId",
+            avg(mean) as "mean", count(*)::int as "hours"
+     from (
+       select hour, tag_id, mean,
+              min(min) filter (where tag_id = $1) over (partition by hour) as run_min,
+              count(*) filter (where tag_id = any($2::int[])) over (partition by hour) as required_n
+       from sample_hourly
+       where tag_id = any($1::int || $2::int[] || $3::int[])
+         and hour >= $4::timestamptz and hour <= $5::timestamptz - interval '1 hour'
+     ) h
+     where run_min >= 1 and required_n = cardinality($2::int[]) and tag_id <> $1
      group by 1, 2 order by 1, 2`,
     [query.runTagId, query.requiredTagIds, query.optionalTagIds, query.from, query.to, query.timeZone],
   );

@@ -1,51 +1,99 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { Link } from 'react-router-dom';
+import { Link, useSearchParams } from 'react-router-dom';
 import type { User } from '#shared/schemas/users.ts';
-import { Card } from '../../components/ui/card.tsx';
 import { ErrorBoundary } from '../../components/ui/error-boundary.tsx';
 import { PageHeader } from '../../components/ui/page-header.tsx';
-import { navigationFor } from '../../config/navigation.ts';
-import { roleLabels } from '../../config/roles.ts';
+import { WindowFilterBar } from '../../components/window-filter-bar.tsx';
+import { canOpen, pageById, type PageId } from '../../config/navigation.ts';
+import { readKpiWindow, toSearch, type KpiWindow } from '../../lib/kpi-window.ts';
+import { downtimeQueryOptions } from '../../features/downtime/api/get-downtime.ts';
+import { DowntimeSummaryCard } from '../../features/downtime/components/downtime-summary-card.tsx';
+import { forecastQueryOptions } from '../../features/element-life/api/get-forecast.ts';
+import { ForecastSummaryCard } from '../../features/element-life/components/forecast-summary-card.tsx';
 import { healthQueryOptions } from '../../features/health/api/get-health.ts';
 import { HealthCard } from '../../features/health/components/health-card.tsx';
+import { maintenanceMixQueryOptions } from '../../features/maintenance-mix/api/get-maintenance-mix.ts';
+import { MaintenanceMixCard } from '../../features/maintenance-mix/components/maintenance-mix-card.tsx';
+import { performanceQueryOptions } from '../../features/performance/api/get-performance.ts';
+import { PerformanceAlertsCard } from '../../features/performance/components/performance-alerts-card.tsx';
+import { reliabilityQueryOptions } from '../../features/reliability/api/get-reliability.ts';
+import { TrainReliabilityCard } from '../../features/reliability/components/train-reliability-card.tsx';
+import { useSettings } from '../../features/settings/api/get-settings.ts';
 import { pageLoader, RequirePage } from '../guard.tsx';
+import { prefetchWithSettings } from '../plant-settings.ts';
+
+/** The dashboard looks at the whole site: only the window and the site come from the address. */
+function dashboardWindow(search: URLSearchParams, plantConfidence: number): KpiWindow {
+  const { site, from, to } = readKpiWindow(search);
+  return { site, from, to, confidence: plantConfidence };
+}
 
 export const createDashboardLoader = (queryClient: QueryClient) =>
-  pageLoader(queryClient, 'dashboard', () => [queryClient.prefetchQuery(healthQueryOptions)]);
+  pageLoader(queryClient, 'dashboard', (user, url) => [
+    queryClient.prefetchQuery(healthQueryOptions),
+    prefetchWithSettings(queryClient, (s) => {
+      const w = dashboardWindow(url.searchParams, s.confidence);
+      return [
+        canOpen(user.role, 'reliability') && queryClient.prefetchQuery(reliabilityQueryOptions({ ...w, groupBy: 'asset' })),
+        canOpen(user.role, 'performance') && queryClient.prefetchQuery(performanceQueryOptions(w)),
+        queryClient.prefetchQuery(downtimeQueryOptions(w)),
+        queryClient.prefetchQuery(forecastQueryOptions({ ...w, groupBy: 'all' })),
+        queryClient.prefetchQuery(maintenanceMixQueryOptions(w)),
+      ].filter((p) => p !== false);
+    }),
+  ]);
 
-function SignedInCard({ user }: { user: User }) {
-  const pages = navigationFor(user.role).filter((p) => p.path !== '/');
+/** "Open the page" link of a card, keeping the window so the page shows the same figures in detail. */
+function PageLink({ page, user, w, children }: { page: PageId; user: User; w: KpiWindow; children: string }) {
+  if (!canOpen(user.role, page) || !pageById(page).ready) return null;
   return (
-    <Card title="Signed in">
-      <dl className="grid gap-x-6 gap-y-3 text-sm sm:grid-cols-3">
-        <div>
-          <dt className="text-basin-600">User</dt>
-          <dd className="mt-0.5 font-bold text-basin-900">{user.name || user.email}</dd>
+    <Link to={`${pageById(page).path}${toSearch({ site: w.site, from: w.from, to: w.to })}`} className="mt-4 inline-block text-sm font-bold text-tide-700 underline underline-offset-2 hover:text-tide-800">
+      {children} →
+    </Link>
+  );
+}
+
+function Dashboard({ user }: { user: User }) {
+  const settings = useSettings();
+  const [search] = useSearchParams();
+  const w = dashboardWindow(search, settings.confidence);
+  const currency = settings.currency;
+  return (
+    <>
+      <WindowFilterBar />
+      <div className="space-y-6">
+        <div className="grid gap-6 xl:grid-cols-2">
+          {canOpen(user.role, 'reliability') && (
+            <ErrorBoundary title="Trains">
+              <TrainReliabilityCard params={w} footer={<PageLink page="reliability" user={user} w={w}>Reliability by asset</PageLink>} />
+            </ErrorBoundary>
+          )}
+          <ErrorBoundary title="Maintenance mix">
+            <MaintenanceMixCard params={w} currency={currency} />
+          </ErrorBoundary>
+          <ErrorBoundary title="Downtime">
+            <DowntimeSummaryCard params={w} currency={currency} footer={<PageLink page="downtime" user={user} w={w}>Downtime in detail</PageLink>} />
+          </ErrorBoundary>
+          <ErrorBoundary title="Replacement forecast">
+            <ForecastSummaryCard
+              params={{ ...w, groupBy: 'all' }}
+              currency={currency}
+              footer={<PageLink page="element-life" user={user} w={w}>Element life and the forecast by month</PageLink>}
+            />
+          </ErrorBoundary>
         </div>
-        <div>
-          <dt className="text-basin-600">E-mail</dt>
-          <dd className="mt-0.5 text-basin-900">{user.email}</dd>
+        {canOpen(user.role, 'performance') && (
+          <ErrorBoundary title="Membrane performance alerts">
+            <PerformanceAlertsCard params={w} footer={<PageLink page="performance" user={user} w={w}>Normalized performance by stage</PageLink>} />
+          </ErrorBoundary>
+        )}
+        <div className="max-w-3xl">
+          <ErrorBoundary title="Server health">
+            <HealthCard />
+          </ErrorBoundary>
         </div>
-        <div>
-          <dt className="text-basin-600">Role</dt>
-          <dd className="mt-0.5 font-bold text-basin-900">{roleLabels[user.role]}</dd>
-        </div>
-      </dl>
-      {pages.length > 0 && (
-        <p className="mt-4 text-sm text-basin-700">
-          Your role also opens{' '}
-          {pages.map((p, i) => (
-            <span key={p.id}>
-              {i > 0 && (i === pages.length - 1 ? ' and ' : ', ')}
-              <Link to={p.path} className="font-bold text-tide-700 underline underline-offset-2 hover:text-tide-800">
-                {p.label}
-              </Link>
-            </span>
-          ))}
-          .
-        </p>
-      )}
-    </Card>
+      </div>
+    </>
   );
 }
 
@@ -53,15 +101,12 @@ export function DashboardRoute() {
   return (
     <>
       <title>Dashboard · Osmia</title>
-      <PageHeader title="Dashboard" description="The state of this Osmia server and of your account." />
+      <PageHeader title="Dashboard" description="The plant at a glance: availability, downtime, replacements ahead, maintenance mix and membrane alerts." />
       <RequirePage page="dashboard">
         {(user) => (
-          <div className="space-y-6">
-            <ErrorBoundary title="Server health">
-              <HealthCard />
-            </ErrorBoundary>
-            <SignedInCard user={user} />
-          </div>
+          <ErrorBoundary title="Settings">
+            <Dashboard user={user} />
+          </ErrorBoundary>
         )}
       </RequirePage>
     </>

@@ -24,6 +24,11 @@ export interface TableProps<T> {
   initialSort?: { id: string; direction: SortDirection };
   /** Shown in place of the body when there are no rows. */
   empty?: ReactNode;
+  /**
+   * Long lists: show this many rows (after sorting, so a sort looks at every row) and a button that
+   * shows more.
+   */
+  pageSize?: number;
 }
 
 function compare(a: SortValue, b: SortValue): number {
@@ -54,8 +59,9 @@ function SortIcon({ direction }: { direction: SortDirection | null }) {
   );
 }
 
-export function Table<T>({ caption, hideCaption = false, columns, rows, rowKey, initialSort, empty }: TableProps<T>) {
+export function Table<T>({ caption, hideCaption = false, columns, rows, rowKey, initialSort, empty, pageSize }: TableProps<T>) {
   const [sort, setSort] = useState(initialSort ?? null);
+  const [limit, setLimit] = useState(pageSize ?? Infinity);
   const sorted = useMemo(() => {
     const column = sort && columns.find((c) => c.id === sort.id);
     return column?.sortValue && sort ? sortRows(rows, column.sortValue, sort.direction) : rows;
@@ -65,6 +71,9 @@ export function Table<T>({ caption, hideCaption = false, columns, rows, rowKey, 
     setSort((current) =>
       current?.id === id ? { id, direction: current.direction === 'ascending' ? 'descending' : 'ascending' } : { id, direction: 'ascending' },
     );
+
+  const visible = sorted.length > limit ? sorted.slice(0, limit) : sorted;
+  const hidden = sorted.length - visible.length;
 
   return (
     <div className="overflow-x-auto rounded-lg border border-basin-200 bg-white">
@@ -106,7 +115,7 @@ export function Table<T>({ caption, hideCaption = false, columns, rows, rowKey, 
               </td>
             </tr>
           ) : (
-            sorted.map((row) => (
+            visible.map((row) => (
               <tr key={rowKey(row)} className="border-b border-basin-100 last:border-b-0 hover:bg-basin-50/60">
                 {columns.map((c) => (
                   <td key={c.id} className={cn('px-4 py-2 align-middle', c.align === 'right' && 'text-right tabular-nums', c.className)}>
@@ -118,6 +127,23 @@ export function Table<T>({ caption, hideCaption = false, columns, rows, rowKey, 
           )}
         </tbody>
       </table>
+      {hidden > 0 && (
+        <div className="flex items-center gap-3 border-t border-basin-200 px-4 py-2 text-sm text-basin-700">
+          <span>
+            {visible.length} of {sorted.length} rows shown.
+          </span>
+          <button
+            type="button"
+            onClick={() => setLimit((n) => n + (pageSize ?? hidden) * 4)}
+            className="rounded font-bold text-tide-700 underline underline-offset-2 hover:text-tide-800"
+          >
+            Show {Math.min(hidden, (pageSize ?? hidden) * 4)} more
+          </button>
+          <button type="button" onClick={() => setLimit(Infinity)} className="rounded font-bold text-tide-700 underline underline-offset-2 hover:text-tide-800">
+            Show all
+          </button>
+        </div>
+      )}
     </div>
   );
 }

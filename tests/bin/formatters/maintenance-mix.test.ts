@@ -23,9 +23,9 @@ describe('formatMaintenanceMix', () => {
   const row = (label: string) => cells(lines.find((l) => l.includes(label))!);
 
   it('prints shares as percentages, compliance with its counts, backlog in hours and weeks', () => {
-    expect(row('planned share')).toEqual(['planned share of hours', '40.0 %']);
-    expect(row('reactive share')).toEqual(['reactive share of hours', '60.0 %']);
-    expect(row('PM compliance')).toEqual(['PM compliance', '50.0 % (1 of 2)']);
+    expect(row('planned share')).toEqual(['planned share of hours', '40 %']);
+    expect(row('reactive share')).toEqual(['reactive share of hours', '60 %']);
+    expect(row('PM compliance')).toEqual(['PM compliance', '50 % (1 of 2)']);
     expect(row('backlog (work orders')).toEqual(['backlog (work orders / hours)', '1 / 4']);
     expect(row('weeks of crew')).toEqual(['backlog (weeks of crew capacity)', '0.03']);
   });

@@ -21,7 +21,7 @@ const report = timeToCompleteReportSchema.parse({
 const cells = (line: string) => line.split('│').map((c) => c.trim()).filter(Boolean);
 
 describe('formatTimeToComplete', () => {
-  const text = formatTimeToComplete({ ...report, cautions: vesselWorkCautions, procedureDefinition: 'procedure = kind of job' });
+  const text = formatTimeToComplete({ ...report, cautions: [...vesselWorkCautions], procedureDefinition: 'procedure = kind of job' });
   const lines = text.split('\n');
 
   it('prints group rows of n, mean, median and p90 in hours', () => {

@@ -54,5 +54,8 @@ export async function accessFixtures(t: TestApp): Promise<Record<string, Fixture
     'GET /api/kpi/forecast': { method: 'get', url: '/api/kpi/forecast?site=ACC' },
     'GET /api/kpi/time-to-complete': { method: 'get', url: '/api/kpi/time-to-complete?site=ACC' },
     'GET /api/kpi/maintenance-mix': { method: 'get', url: '/api/kpi/maintenance-mix?site=ACC' },
+    'GET /api/kpi/reliability': { method: 'get', url: '/api/kpi/reliability?site=ACC&groupBy=asset' },
+    'GET /api/kpi/downtime': { method: 'get', url: '/api/kpi/downtime?site=ACC' },
+    'GET /api/kpi/performance': { method: 'get', url: '/api/kpi/performance?site=ACC' },
   };
 }

@@ -4,6 +4,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { downtimeQuerySchema, downtimeReportSchema } from '#shared/schemas/kpi-ops.ts';
 import { getDowntime } from '#server/services/downtime.ts';
+import { importText } from '../importers/helpers.ts';
 import { updateSettings } from '#server/services/settings.ts';
 import { createTestDatabase, type TestDatabase } from '../../setup/db.ts';
 import { SITE, seedEmptySite, seedOpsPlant } from './ops-plant.ts';
@@ -123,5 +124,14 @@ describe('windows and scope', () => {
 
   it('refuses an empty window', async () => {
     await expect(run({ from: '2025-01-02T00:00:00Z', to: '2025-01-02T00:00:00Z' })).rejects.toMatchObject({ status: 400, code: 'invalid-window' });
+  });
+});
+
+describe('derived tables not yet refreshed', () => {
+  it('says that imported run-status data awaits `osmia refresh`', async () => {
+    const rec = await importText(t.db, 'historian', 'timestamp,tag,value,quality\n2025-01-11T01:00:00Z,TR1.RUN,0,good\n', { site: SITE });
+    expect(rec.status).toBe('completed');
+    const report = await run({ asset: 'TR1' });
+    expect(report.notes).toContain('Imported data of TR1.RUN awaits `osmia refresh`: stops and operating time may be out of date.');
   });
 });

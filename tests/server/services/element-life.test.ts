@@ -185,7 +185,7 @@ describe('element life: a register worked by hand', () => {
       ['train=T2', 3, 1],
     ]);
     // T1: 100 E, 184 C, 200 C, 300 E, 365 C → S = 4/5 = 0.8, then × 1/2 = 0.4.
-    expect(group(byTrain, 'train=T1').km.filter((p) => p.nEvents > 0).map((p) => p.survival)).toEqual([
+    expect(group(byTrain, 'train=T1').km.filter((p) => (p.nEvents ?? 0) > 0).map((p) => p.survival)).toEqual([
       expect.closeTo(0.8, 12),
       expect.closeTo(0.4, 12),
     ]);

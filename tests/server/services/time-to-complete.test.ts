@@ -63,6 +63,12 @@ beforeAll(async () => {
   const s = await importText(t.db, 'job-steps', jobSteps, { site: 'TTC' });
   expect(s.rejects).toEqual([]);
   expect((await importText(t.db, 'assets', assets, { site: 'NOJOBS', tz: 'UTC', fileName: 'nojobs.csv' })).status).toBe('completed');
+  // OPEN: a work order still open, whose steps were logged two days after it was reported.
+  expect((await importText(t.db, 'assets', assets, { site: 'OPEN', tz: 'UTC', fileName: 'open.csv' })).status).toBe('completed');
+  const header = workOrders.split('\n')[0];
+  await importText(t.db, 'work-orders', `${header}\nO-1,T1-S1-V01,corrective,high,in_progress,,Open job,2021-01-01 08:00,2021-01-01 09:00,,,,3,0,0,crew-c`, { site: 'OPEN' });
+  const open = await importText(t.db, 'job-steps', 'wo_number,step,name,started_at,completed_at,guided,technician\nO-1,1,Swap elements,2021-01-03 08:00,2021-01-03 10:00,yes,tech-9', { site: 'OPEN', fileName: 'open-steps.csv' });
+  expect(open.rejects).toEqual([]);
 });
 afterAll(() => t.close());
 
@@ -141,6 +147,12 @@ describe('time to complete', () => {
     expect(r.jobs.map((j) => j.woNumber)).toEqual(['WO-03', 'WO-05']);
     expect(r.provenance!.workOrders).toEqual(['WO-03', 'WO-05']);
     expect(r.provenance!.windows[0]).toMatchObject({ from: '2021-03-27T23:00:00.000Z', to: '2021-06-30T22:00:00.000Z' });
+  });
+
+  it('the default window takes in steps logged after every other date of the site (an open work order)', async () => {
+    const r = await ttc({ site: 'OPEN' });
+    expect(r.jobs.map((j) => [j.woNumber, j.hours])).toEqual([['O-1', 2]]);
+    expect([r.from, r.to]).toEqual(['2021-01-01T08:00:00.000Z', '2021-01-03T08:00:01.000Z']);
   });
 
   it('scopes to the work orders of an asset and what is below it', async () => {

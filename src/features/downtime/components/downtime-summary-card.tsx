@@ -1,0 +1,72 @@
+import type { ReactNode } from 'react';
+import { Card } from '../../../components/ui/card.tsx';
+import { formatHours, formatMoney, formatNumber, formatShare, formatVolume } from '../../../lib/format.ts';
+import { useDowntime, type DowntimeParams } from '../api/get-downtime.ts';
+import { causeLabel } from '../utils/labels.ts';
+
+/** Dashboard: down time, lost permeate and its cost by asset, and the causes that took the most hours. */
+export function DowntimeSummaryCard({ params, currency, footer }: { params: DowntimeParams; currency: string; footer?: ReactNode }) {
+  const report = useDowntime(params);
+  const assets = [...report.totals].sort((a, b) => b.hours - a.hours).slice(0, 4);
+  const causes = report.paretoByCause.slice(0, 5);
+  const longest = Math.max(...causes.map((c) => c.hours), 1);
+  return (
+    <Card title="Downtime" description={`${formatNumber(report.events.length, 0)} stops of the assets with a run-status tag.`}>
+      {assets.length === 0 ? (
+        <p className="text-sm text-basin-600">No stops in this window.</p>
+      ) : (
+        <table className="w-full text-sm">
+          <caption className="sr-only">Down time by asset</caption>
+          <thead>
+            <tr className="text-left text-xs text-basin-600">
+              <th scope="col" className="pb-1 font-normal">
+                Asset
+              </th>
+              <th scope="col" className="pb-1 text-right font-normal">
+                Down time
+              </th>
+              <th scope="col" className="pb-1 text-right font-normal">
+                Lost permeate
+              </th>
+              <th scope="col" className="pb-1 text-right font-normal">
+                Cost
+              </th>
+            </tr>
+          </thead>
+          <tbody className="tabular-nums">
+            {assets.map((t) => (
+              <tr key={t.asset} className="border-t border-basin-100">
+                <th scope="row" className="py-1 text-left font-mono text-xs font-bold">
+                  {t.asset}
+                </th>
+                <td className="py-1 text-right font-bold">{formatHours(t.hours, 0)}</td>
+                <td className="py-1 text-right">{formatVolume(t.lostVolumeM3)}</td>
+                <td className="py-1 text-right">{formatMoney(t.cost, currency)}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      )}
+      {causes.length > 0 && (
+        <>
+          <h3 className="mt-4 text-sm font-bold text-basin-800">Top causes by hours</h3>
+          <ul className="mt-2 space-y-1.5">
+            {causes.map((c) => (
+              <li key={c.key} className="grid grid-cols-[9rem_1fr_auto] items-center gap-3 text-sm">
+                <span className={c.key === 'unknown' ? 'truncate text-basin-600' : 'truncate font-bold text-basin-900'}>{causeLabel(c.key)}</span>
+                <span className="h-2 rounded-full bg-basin-100" aria-hidden="true">
+                  <span className="block h-full rounded-full bg-ember-500" style={{ width: `${(c.hours / longest) * 100}%` }} />
+                </span>
+                <span className="text-right text-xs text-basin-700 tabular-nums">
+                  {formatHours(c.hours, 0)} · {formatShare(c.share, 0)}
+                </span>
+              </li>
+            ))}
+          </ul>
+        </>
+      )}
+      <p className="mt-3 text-xs text-basin-600">A train stops with its pumps, so their rows can cover the same hours: they are not added up.</p>
+      {footer}
+    </Card>
+  );
+}

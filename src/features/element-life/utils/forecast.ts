@@ -1,0 +1,23 @@
+import type { ForecastReport } from '#shared/schemas/kpi.ts';
+
+type Month = ForecastReport['totals'][number];
+
+const monthName = new Intl.DateTimeFormat(undefined, { month: 'short', year: 'numeric', timeZone: 'UTC' });
+
+/** "Oct 2026"; a month the horizon only touches (it starts or ends inside it) is marked "(part)". */
+export function monthLabel(m: Pick<Month, 'label' | 'from' | 'to'>): string {
+  const [year, month] = m.label.split('-').map(Number);
+  const name = Number.isFinite(year) && Number.isFinite(month) ? monthName.format(Date.UTC(year, month - 1, 15)) : m.label;
+  const days = (Date.parse(m.to) - Date.parse(m.from)) / 86_400_000;
+  return days < 27 ? `${name} (part)` : name;
+}
+
+/** Sums of the forecast over its groups (each group's own total is exact; a band exists only per group). */
+export function forecastTotals(report: ForecastReport) {
+  const count = report.groups.reduce((n, g) => n + g.total.expectedCount, 0);
+  const cost = report.groups.reduce((n, g) => n + g.total.expectedCost, 0);
+  const inService = report.groups.reduce((n, g) => n + g.inService, 0);
+  const single = report.groups.length === 1 ? report.groups[0].total : null;
+  return { count, cost, inService, single };
+}
+

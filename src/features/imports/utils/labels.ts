@@ -1,0 +1,77 @@
+import type { ImportKind, ImportStatus } from '#shared/schemas/enums.ts';
+import { importColumns, optionalColumns } from '#shared/schemas/imports.ts';
+import type { BadgeTone } from '../../../components/ui/badge.tsx';
+
+export const kindLabels: Record<ImportKind, string> = {
+  historian: 'Historian samples (long or wide)',
+  tags: 'Tag map',
+  assets: 'Asset register',
+  'work-orders': 'Work orders',
+  elements: 'Element register',
+  'job-steps': 'Job steps',
+};
+
+export const statusTones: Record<ImportStatus, BadgeTone> = {
+  running: 'brand',
+  completed: 'ok',
+  partial: 'warning',
+  failed: 'fault',
+  duplicate: 'neutral',
+};
+
+export const statusLabels: Record<ImportStatus, string> = {
+  running: 'running',
+  completed: 'completed',
+  partial: 'partial: rows rejected',
+  failed: 'failed: nothing kept',
+  duplicate: 'duplicate: already imported',
+};
+
+/** The canonical header of a kind, optional columns in brackets (DESIGN §5). */
+export function columnsHint(kind: ImportKind): string {
+  const optional = new Set(optionalColumns[kind] ?? []);
+  const columns = importColumns[kind].map((c) => (optional.has(c) ? `[${c}]` : c)).join(', ');
+  return kind === 'historian' ? `${columns}; or wide: timestamp, then one column per tag` : columns;
+}
+
+const noteLabels: Record<string, string> = {
+  format: 'File format',
+  delimiter: 'Delimiter',
+  layout: 'Historian layout',
+  samplesRead: 'Samples read',
+  samplesNotGoodQuality: 'Samples of uncertain or bad quality (left out of calculations)',
+  tags: 'Tags in the file',
+  from: 'First sample',
+  to: 'Last sample',
+  dstGapShifted: 'Local times in a daylight-saving gap, moved forward',
+  dstRepeatResolved: 'Local times in a daylight-saving repeat, resolved',
+  rejectsNotStored: 'Rejects beyond those stored',
+  formulaLikeText: 'Cells that look like spreadsheet formulas (stored as text)',
+  kinds: 'Assets by kind',
+  rowsUpdated: 'Rows updated',
+};
+
+/** A note of the import record as a label and a text: known keys in words, others as they come. */
+export function describeNote(key: string, value: unknown): [string, string] {
+  const label = noteLabels[key] ?? key;
+  if (value === null || value === undefined) return [label, '—'];
+  if (typeof value === 'object') {
+    const entries = Object.entries(value as Record<string, unknown>);
+    return [label, Array.isArray(value) ? value.map(String).join(', ') : entries.map(([k, v]) => `${k}: ${String(v)}`).join(', ')];
+  }
+  if (key === 'delimiter' && value === '\t') return [label, 'tab'];
+  return [label, String(value)];
+}
+
+/** A byte count as "12.3 MB". */
+export function formatBytes(bytes: number): string {
+  if (!Number.isFinite(bytes) || bytes < 0) return '—';
+  const units = ['B', 'kB', 'MB', 'GB'];
+  let value = bytes;
+  let unit = 0;
+  while (value >= 1000 && unit < units.length - 1) {
+    value /= 1000;
+    unit++;
+  }
+  return `${new Intl.NumberFormat(undefined, { maximumFractionDigits: unit === 0 ? 0 : 1 }).format(value)} ${units[unit]}`;
+}

@@ -1,0 +1,8 @@
+import { nullReasonMessages } from '#shared/kpi/stats.ts';
+import type { NullReason } from '#shared/schemas/kpi.ts';
+
+/** The sentence for a KPI's null reason code (shared/kpi/stats.ts), or the code itself when unknown. */
+export function nullReasonText(reason: string | null | undefined): string | undefined {
+  if (!reason) return undefined;
+  return (nullReasonMessages as Record<string, string>)[reason as NullReason] ?? reason;
+}
