@@ -72,22 +72,22 @@ function FilterForm({ asset, confidence, defaultConfidence, note, current, apply
   return (
     <form onSubmit={submit} noValidate aria-label="Window and filters" aria-describedby={hintId} className="mb-6 rounded-lg border border-basin-200 bg-white px-4 py-3 shadow-sm">
       <div className="flex flex-wrap items-end gap-x-4 gap-y-3">
-        <Input label="From" type="date" className="w-40" value={draft.from} max={draft.to || undefined} onChange={(e) => set('from')(e.target.value)} />
-        <Input label="Until" type="date" className="w-40" value={draft.to} min={draft.from || undefined} onChange={(e) => set('to')(e.target.value)} />
+        <Input label="From" type="date" className="w-36" value={draft.from} max={draft.to || undefined} onChange={(e) => set('from')(e.target.value)} />
+        <Input label="Until" type="date" className="w-36" value={draft.to} min={draft.from || undefined} onChange={(e) => set('to')(e.target.value)} />
         {asset && (
-          <Input label="Asset code" className="w-36" placeholder="whole site" value={draft.asset} autoComplete="off" spellCheck={false} onChange={(e) => set('asset')(e.target.value)} />
+          <Input label="Asset code" className="w-32" placeholder="whole site" value={draft.asset} autoComplete="off" spellCheck={false} onChange={(e) => set('asset')(e.target.value)} />
         )}
-        <Input label="Site code" className="w-32" placeholder="only site" value={draft.site} autoComplete="off" spellCheck={false} onChange={(e) => set('site')(e.target.value)} />
+        <Input label="Site code" className="w-28" placeholder="only site" value={draft.site} autoComplete="off" spellCheck={false} onChange={(e) => set('site')(e.target.value)} />
         {confidence && (
           <Select
             label="Confidence"
-            className="w-32"
+            className="w-36"
             value={draft.confidence}
             onChange={(e) => set('confidence')(e.target.value)}
             options={levels.map((c) => ({ value: String(c), label: `${formatNumber(c * 100, 1)} %${c === defaultConfidence ? ' (plant)' : ''}` }))}
           />
         )}
-        <div className="flex gap-2 pb-px">
+        <div className="flex gap-1 pb-px">
           <Button type="submit">Apply</Button>
           <Button variant="ghost" onClick={reset}>
             Whole range

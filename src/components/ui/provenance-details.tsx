@@ -39,7 +39,7 @@ export function ProvenanceDetails({ provenance, className }: { provenance: Prove
   return (
     <details className={className}>
       <summary className="cursor-pointer text-sm font-bold text-tide-700 hover:text-tide-800">
-        Computed from {summary || 'no recorded inputs'}
+        Inputs behind these figures: {summary || 'none recorded'}
       </summary>
       <div className="mt-3 space-y-3 rounded-md border border-basin-200 bg-basin-50 p-3">
         <CodeList title="Work orders" items={workOrders} />

@@ -12,6 +12,8 @@ export interface Column<T> {
   sortValue?: (row: T) => SortValue;
   align?: 'left' | 'right';
   className?: string;
+  /** Lets a long header break onto two lines (a wide table with many figures). */
+  wrapHeader?: boolean;
 }
 
 export interface TableProps<T> {
@@ -88,7 +90,7 @@ export function Table<T>({ caption, hideCaption = false, columns, rows, rowKey, 
                   key={c.id}
                   scope="col"
                   aria-sort={c.sortValue ? (direction ?? 'none') : undefined}
-                  className={cn('px-4 py-2 font-bold whitespace-nowrap', c.align === 'right' && 'text-right')}
+                  className={cn('px-4 py-2 font-bold', c.wrapHeader ? 'min-w-20 align-bottom' : 'whitespace-nowrap', c.align === 'right' && 'text-right')}
                 >
                   {c.sortValue ? (
                     <button

@@ -58,7 +58,7 @@ export function SurvivalChart({ series, confidenceLabel }: { series: readonly Su
       theme={chartTheme}
       axisBottom={{ legend: 'Element age, years', legendPosition: 'middle', legendOffset: 38 }}
       axisLeft={{ legend: 'Still in service', legendPosition: 'middle', legendOffset: -46, format: (v) => formatShare(Number(v), 0), tickValues: 5 }}
-      markers={[{ axis: 'y', value: 0.5, legend: 'median life', legendPosition: 'top-right', lineStyle: { stroke: chartColors.muted, strokeDasharray: '4 4', strokeWidth: 1 } }]}
+      markers={[{ axis: 'y', value: 0.5, legend: 'half still in service', legendPosition: 'top-right', lineStyle: { stroke: chartColors.muted, strokeDasharray: '4 4', strokeWidth: 1 }, textStyle: { fill: chartColors.muted, fontSize: 11 } }]}
       layers={series.length === 1 ? ['grid', 'markers', bandLayer(series[0].steps), 'axes', 'lines', 'crosshair', 'mesh'] : [...layers]}
       legends={
         series.length > 1

@@ -1,0 +1,216 @@
+// KPI benchmark: every /api/kpi/* endpoint on a database of ~20 M samples and 50,000 work orders.
+//   npm run bench:kpi                     (defaults: 4.6 years at 5-minute steps ≈ 20 M samples)
+//   npm run bench:kpi -- --years 1        (a quick run)
+// For each endpoint: the cold answer time (cache invalidated before each request) against the
+// hand-written SQL aggregate that is the floor for the same question, and p95 latency with 20
+// concurrent clients (autocannon, loopback). Also `refresh` after one more day of samples against a
+// full rebuild. Writes bench/out/kpi.json and prints a table for the README.
+import { mkdirSync, writeFileSync, createWriteStream } from 'node:fs';
+import { join } from 'node:path';
+import autocannon from 'autocannon';
+import pg from 'pg';
+import { closeDb, createDb } from '#server/db/client.ts';
+import { startThrowawayCluster } from '#server/db/cluster.ts';
+import { migrateDb } from '#server/db/migrate.ts';
+import { seedDemo } from '#server/demo/seed.ts';
+import { seedDemoUsers } from '#server/demo/users.ts';
+import { loadEnv } from '#server/env.ts';
+import { runImport } from '#server/importers/run.ts';
+import { refresh } from '#server/jobs/refresh.ts';
+import { startServer } from '#server/index.ts';
+
+const root = join(import.meta.dirname, '..');
+const out = join(root, 'bench', 'out');
+const arg = (name: string, fallback: number) => {
+  const i = process.argv.indexOf(`--${name}`);
+  return i > 0 ? Number(process.argv[i + 1]) : fallback;
+};
+const years = arg('years', 4.6);
+const extraWorkOrders = arg('work-orders', 50_000);
+const seconds = arg('seconds', 10);
+const log = (s: string) => process.stderr.write(s + '\n');
+
+mkdirSync(out, { recursive: true });
+const cluster = process.env.DATABASE_URL ? undefined : await startThrowawayCluster(log);
+const serverUrl = process.env.DATABASE_URL ?? cluster!.url;
+const dbName = `osmia_kpibench_${Date.now()}`;
+const admin = new pg.Client({ connectionString: serverUrl });
+await admin.connect();
+await admin.query(`create database ${dbName}`);
+await admin.end();
+const url = Object.assign(new URL(serverUrl), { pathname: `/${dbName}` }).toString();
+const db = createDb(url);
+
+const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
+async function time(fn: () => Promise<unknown>, n = 5): Promise<number> {
+  const ms: number[] = [];
+  for (let i = 0; i < n; i++) {
+    const t0 = performance.now();
+    await fn();
+    ms.push(performance.now() - t0);
+  }
+  return median(ms);
+}
+
+try {
+  await migrateDb(db);
+  await seedDemoUsers(db, 4);
+  const demoDir = join(out, 'kpi-demo');
+  const seeded = await seedDemo(db, { outDir: demoDir, years, stepMinutes: 5, log });
+  const site = seeded.manifest.site;
+
+  // 50,000 more work orders on the demo's pumps, filters and vessels, spread over the historian window.
+  const assets = (await db.$client.query<{ code: string; kind: string }>(`select code, kind from assets where kind in ('pump', 'filter', 'vessel', 'instrument')`)).rows;
+  const woFile = join(out, 'kpi-work-orders.csv');
+  const ws = createWriteStream(woFile);
+  ws.write('wo_number,asset,type,priority,status,failure_code,description,reported_at,started_at,completed_at,out_of_service_from,out_of_service_to,labour_hours,labour_cost,parts_cost,crew\n');
+  const start = Date.parse(seeded.manifest.historian.start);
+  const span = Date.parse(seeded.manifest.historian.end) - start - 86_400_000;
+  const types = ['corrective', 'preventive', 'predictive', 'inspection', 'improvement'];
+  const codes = ['SEAL-LEAK', 'BRG-WEAR', 'ORING', 'INST-DRIFT', 'FILTER-DP'];
+  for (let i = 0; i < extraWorkOrders; i++) {
+    const a = assets[(i * 7919) % assets.length];
+    const type = types[i % types.length];
+    const reported = start + ((i * 104_729) % span);
+    const iso = (ms: number) => new Date(ms).toISOString();
+    const code = type === 'corrective' ? codes[i % codes.length] : '';
+    ws.write(`BW-${i},${a.code},${type},medium,closed,${code},bench order ${i},${iso(reported)},${iso(reported + 3_600_000)},${iso(reported + 4 * 3_600_000)},,,3,150,${i % 300},crew-${i % 6}\n`);
+  }
+  await new Promise<void>((r) => ws.end(r));
+  const wo = await runImport(db, { kind: 'work-orders', path: woFile, site: site.code, actor: 'bench' });
+  log(`work orders: ${wo.status}, ${wo.rowsInserted} inserted`);
+  const counts = (await db.$client.query<{ samples: number; work_orders: number }>(`select (select count(*) from samples)::int as samples, (select count(*) from work_orders)::int as work_orders`)).rows[0];
+  await db.$client.query('analyze');
+
+  // Refresh: full rebuild, then one more day of samples and an incremental refresh.
+  const full = await refresh(db, { full: true });
+  const dayFile = join(out, 'kpi-next-day.csv');
+  const end = seeded.manifest.historian.end;
+  const { rows: lastDay } = await db.$client.query<{ line: string }>(
+    `select concat_ws(',', to_char((s.ts + interval '1 day') at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"'), t.name, s.value, s.quality) as line
+     from samples s join tags t on t.id = s.tag_id where s.ts >= $1::timestamptz - interval '1 day' and s.ts < $1::timestamptz order by s.ts`,
+    [end],
+  );
+  // Values leave the database in canonical units: name the tags' units in the file would be wrong for
+  // tags imported in psi, °F…, so the extra day goes in through a wide-free long file of canonical tags only.
+  const canonical = new Set((await db.$client.query<{ name: string }>(`select name from tags where source_unit in ('', 'bar', 'm3/h', 'uS/cm', 'degC')`)).rows.map((r) => r.name));
+  writeFileSync(dayFile, 'timestamp,tag,value,quality\n' + lastDay.map((r) => r.line).filter((l) => canonical.has(l.split(',')[1])).join('\n') + '\n');
+  const day = await runImport(db, { kind: 'historian', path: dayFile, site: site.code, actor: 'bench' });
+  const incremental = await refresh(db);
+  log(`refresh: full ${full.durationMs} ms, one more day (${day.rowsInserted} samples) ${incremental.durationMs} ms`);
+
+  // The server, in this process, on a free port.
+  const env = loadEnv({ NODE_ENV: 'production', DATABASE_URL: url, JWT_SECRET: 'bench-secret-bench-secret-bench-secret-1', PORT: '0', LOGIN_RATE_LIMIT: '1000' });
+  const server = await startServer(env);
+  const login = await fetch(`${server.url}/api/auth/login`, { method: 'post', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'admin@osmia.example', password: 'demo-admin-pass' }) });
+  const cookie = login.headers.get('set-cookie')!.split(';')[0];
+  const get = async (path: string) => {
+    const r = await fetch(server.url + path, { headers: { cookie, 'accept-encoding': 'gzip' } });
+    if (!r.ok) throw new Error(`${path}: ${r.status} ${await r.text()}`);
+    return r.arrayBuffer();
+  };
+  const invalidate = () =>
+    fetch(`${server.url}/api/settings`, { method: 'put', headers: { cookie, 'content-type': 'application/json' }, body: JSON.stringify({ currency: 'EUR' }) });
+
+  const siteId = (await db.$client.query<{ id: number }>(`select id from sites where code = $1`, [site.code])).rows[0].id;
+  // The floor: the one SQL statement someone would write by hand to answer the same question from the
+  // imported data (raw samples, work orders, element and job registers), without Osmia's derived tables.
+  const runningFromSamples = `select s.tag_id, s.ts, s.value, lead(s.ts) over (partition by s.tag_id order by s.ts) as next_ts
+      from samples s join tags t on t.id = s.tag_id
+      where t.site_id = ${siteId} and t.quantity = 'run_status' and (s.quality & 192) = 192`;
+  const floors: Record<string, string> = {
+    // Operating hours of the trains from their run status, failures and restoration hours from work orders.
+    reliability: `with run as (${runningFromSamples} and t.asset_id in (select id from assets where kind = 'train'))
+                  select (select sum(extract(epoch from next_ts - ts)) / 3600 from run where value >= 0.5) as operating_hours,
+                         count(*) filter (where type = 'corrective' and failure_code is not null) as failures,
+                         avg(extract(epoch from out_of_service_to - out_of_service_from) / 3600) filter (where type = 'corrective' and failure_code is not null) as mttr_hours
+                  from work_orders where site_id = ${siteId}`,
+    // Lives by stage: count, events, mean (what SQL can do without a survival fit).
+    'element-life': `select a.parent_id, count(*), count(*) filter (where e.removal_reason in ('failed', 'performance', 'damaged')),
+                       avg(extract(epoch from coalesce(e.removed_at, now()) - e.installed_at) / 86400)
+                     from elements e join assets a on a.id = e.vessel_id where e.site_id = ${siteId} group by a.parent_id`,
+    // Elements in service and their ages by stage.
+    forecast: `select a.parent_id, count(*), avg(extract(epoch from now() - e.installed_at) / 86400) from elements e join assets a on a.id = e.vessel_id
+               where e.site_id = ${siteId} and e.removed_at is null group by a.parent_id`,
+    // Job durations: median and p90 (type 7 = percentile_cont) and mean.
+    'time-to-complete': `select percentile_cont(array[0.5, 0.9]) within group (order by h), avg(h), count(*) from (
+                           select extract(epoch from max(s.completed_at) - min(s.started_at)) / 3600 as h from job_steps s group by s.work_order_id) j`,
+    // Stopped hours and stop count per run-status tag from the raw samples.
+    downtime: `with run as (${runningFromSamples}), edges as (select *, lag(value) over (partition by tag_id order by ts) as prev from run)
+               select tag_id, sum(extract(epoch from next_ts - ts)) filter (where value < 0.5) / 3600 as stopped_hours,
+                      count(*) filter (where value < 0.5 and prev >= 0.5) as stops
+               from edges group by tag_id`,
+    // Daily means of every process tag from the raw samples.
+    performance: `select t.asset_id, t.quantity, date_trunc('day', s.ts), avg(s.value) from samples s join tags t on t.id = s.tag_id
+                  where t.site_id = ${siteId} and t.quantity <> 'run_status' and (s.quality & 192) = 192 group by 1, 2, 3`,
+    // Hours and cost by work-order type, open backlog, and the permeate produced (from raw flow samples).
+    'maintenance-mix': `select type, sum(labour_hours), sum(labour_cost + parts_cost), count(*) filter (where status in ('open', 'in_progress')),
+                          (select sum(s.value) * ${seeded.manifest.historian.stepMinutes} / 60.0 from samples s join tags t on t.id = s.tag_id
+                           where t.site_id = ${siteId} and t.quantity = 'permeate_flow' and (s.quality & 192) = 192)
+                        from work_orders where site_id = ${siteId} group by type`,
+  };
+
+  const results = [];
+  for (const [name, sql] of Object.entries(floors)) {
+    const path = `/api/kpi/${name}`;
+    await get(path); // warm the connection pool and code paths
+    const floorMs = await time(() => db.$client.query(sql));
+    const coldMs = await time(async () => {
+      await invalidate();
+      await get(path);
+    });
+    const invalidateMs = await time(invalidate);
+    const warmMs = await time(() => get(path), 10);
+    const latencies: number[] = [];
+    await new Promise<void>((resolve, reject) => {
+      const instance = autocannon({ url: server.url + path, connections: 20, duration: seconds, headers: { cookie, 'accept-encoding': 'gzip' } }, (err) =>
+        err ? reject(err) : resolve(),
+      );
+      instance.on('response', (_client: unknown, status: number, _bytes: number, responseTime: number) => {
+        if (status !== 200) reject(new Error(`${path} answered ${status} under load`));
+        latencies.push(responseTime);
+      });
+    });
+    latencies.sort((a, b) => a - b);
+    const p95 = latencies[Math.floor(latencies.length * 0.95)];
+    const row = {
+      endpoint: path,
+      floorSqlMs: Math.round(floorMs * 10) / 10,
+      coldMs: Math.round((coldMs - invalidateMs) * 10) / 10,
+      ratio: Math.round(((coldMs - invalidateMs) / floorMs) * 100) / 100,
+      warmMs: Math.round(warmMs * 10) / 10,
+      p95Ms20Clients: Math.round(p95 * 10) / 10,
+      requests: latencies.length,
+    };
+    log(JSON.stringify(row));
+    results.push(row);
+  }
+  await server.close();
+
+  const summary = {
+    date: new Date().toISOString(),
+    samples: counts.samples,
+    workOrders: counts.work_orders,
+    refreshFullMs: full.durationMs,
+    refreshOneDayMs: incremental.durationMs,
+    refreshShare: Math.round((incremental.durationMs / full.durationMs) * 10000) / 100,
+    endpoints: results,
+  };
+  writeFileSync(join(out, 'kpi.json'), JSON.stringify(summary, null, 2) + '\n');
+  console.log(JSON.stringify(summary, null, 2));
+  console.log(
+    `\n${counts.samples.toLocaleString('en-US')} samples, ${counts.work_orders.toLocaleString('en-US')} work orders\n\n` +
+      `| endpoint | floor SQL | cold answer | ratio | cached answer | p95, 20 clients |\n|---|---|---|---|---|---|\n` +
+      results.map((r) => `| ${r.endpoint} | ${r.floorSqlMs} ms | ${r.coldMs} ms | ${r.ratio} | ${r.warmMs} ms | ${r.p95Ms20Clients} ms |`).join('\n') +
+      `\n\nrefresh: full rebuild ${(full.durationMs / 1000).toFixed(1)} s; after one more day of samples ${(incremental.durationMs / 1000).toFixed(2)} s (${summary.refreshShare} % of full)`,
+  );
+} finally {
+  await closeDb(db);
+  if (cluster) await cluster.dispose();
+  else {
+    const c = new pg.Client({ connectionString: serverUrl });
+    await c.connect();
+    await c.query(`drop database if exists ${dbName} with (force)`);
+    await c.end();
+  }
+}
