@@ -7,31 +7,16 @@ import { CsvSink, type WrittenFile } from './csv-sink.ts';
 import { type ElementInstall, isLifeEnding, simulateElements } from './elements.ts';
 import { historianHeader, writeHistorian } from './historian.ts';
 import { type MaintenancePlan, type StopCause, type WoStatus, type WoType, planMaintenance } from './maintenance.ts';
+import { importColumns } from '#shared/schemas/imports.ts';
 import { type DemoPlant, demoPlant, plantAssets, plantTags, stageCode } from './plant.ts';
 import { DAY, MINUTE, isoOrEmpty, isoUtc } from './times.ts';
 
-export const assetsHeader = ['code', 'name', 'kind', 'parent', 'rated_permeate_m3h', 'element_capacity', 'rack_row', 'rack_col'] as const;
-export const tagsHeader = ['tag', 'asset', 'quantity', 'unit'] as const;
-export const workOrdersHeader = [
-  'wo_number',
-  'asset',
-  'type',
-  'priority',
-  'status',
-  'failure_code',
-  'description',
-  'reported_at',
-  'started_at',
-  'completed_at',
-  'out_of_service_from',
-  'out_of_service_to',
-  'labour_hours',
-  'labour_cost',
-  'parts_cost',
-  'crew',
-] as const;
-export const elementsHeader = ['serial', 'model', 'vessel', 'position', 'installed_at', 'removed_at', 'removal_reason'] as const;
-export const jobStepsHeader = ['wo_number', 'step', 'name', 'started_at', 'completed_at', 'guided', 'technician'] as const;
+// The canonical headers are the importers' own (DESIGN §5), so generated files cannot drift from them.
+export const assetsHeader = importColumns.assets;
+export const tagsHeader = importColumns.tags;
+export const workOrdersHeader = importColumns['work-orders'];
+export const elementsHeader = importColumns.elements;
+export const jobStepsHeader = importColumns['job-steps'];
 export { historianHeader };
 
 export const defaultDemoEnd = '2026-10-01T00:00:00Z';

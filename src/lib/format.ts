@@ -93,3 +93,9 @@ export function formatChangePct(pct: number | null | undefined, maxDigits = 1): 
   const sign = text === '0' ? '' : pct > 0 ? '+' : '−';
   return `${sign}${text} %`;
 }
+
+/** A duration given in hours, in minutes below one hour ("2 min"), else in hours ("1.25 h"). */
+export function formatHoursOrMinutes(hours: number | null | undefined): string {
+  if (hours === null || hours === undefined || !Number.isFinite(hours)) return '—';
+  return Math.abs(hours) < 1 ? withUnit(hours * 60, 'min', 0) : formatHours(hours, 2);
+}

@@ -15,10 +15,10 @@ export function DowntimeTotalsTable({ totals, currency }: { totals: readonly Tot
     { id: 'hours', header: 'Down time', align: 'right', sortValue: (t) => t.hours, cell: (t) => <strong>{formatHours(t.hours, 1)}</strong> },
     { id: 'unplanned', header: 'Unplanned', align: 'right', sortValue: (t) => t.unplannedHours, cell: (t) => formatHours(t.unplannedHours, 1) },
     { id: 'planned', header: 'Planned', align: 'right', sortValue: (t) => t.plannedHours, cell: (t) => formatHours(t.plannedHours, 1) },
-    { id: 'rated', header: 'Rated permeate', align: 'right', sortValue: (t) => t.ratedPermeateM3h, cell: (t) => (t.ratedPermeateM3h === null ? '—' : `${formatNumber(t.ratedPermeateM3h, 1)} m³/h`) },
+    { id: 'rated', header: 'Rated permeate', wrapHeader: true, align: 'right', sortValue: (t) => t.ratedPermeateM3h, cell: (t) => (t.ratedPermeateM3h === null ? '—' : `${formatNumber(t.ratedPermeateM3h, 1)} m³/h`) },
     { id: 'lost', header: 'Lost permeate', align: 'right', sortValue: (t) => t.lostVolumeM3, cell: (t) => formatVolume(t.lostVolumeM3) },
-    { id: 'cost', header: 'Cost of lost water', align: 'right', sortValue: (t) => t.cost, cell: (t) => formatMoney(t.cost, currency) },
-    { id: 'tag', header: 'Run-status tag', sortValue: (t) => t.tag, cell: (t) => <span className="font-mono text-xs text-basin-700">{t.tag}</span> },
+    { id: 'cost', header: 'Cost of lost water', wrapHeader: true, align: 'right', sortValue: (t) => t.cost, cell: (t) => formatMoney(t.cost, currency) },
+    { id: 'tag', header: 'Run-status tag', wrapHeader: true, sortValue: (t) => t.tag, cell: (t) => <span className="font-mono text-xs text-basin-700">{t.tag}</span> },
   ];
   return (
     <Table
@@ -35,26 +35,19 @@ export function DowntimeTotalsTable({ totals, currency }: { totals: readonly Tot
 /** Every stop: when, how long, planned or not, its cause and what it cost. */
 export function DowntimeEventsTable({ events, currency }: { events: readonly Event[]; currency: string }) {
   const columns: Column<Event>[] = [
-    { id: 'asset', header: 'Asset', sortValue: (e) => e.asset, cell: (e) => <span className="font-mono text-xs font-bold">{e.asset}</span> },
+    { id: 'asset', header: 'Asset', sortValue: (e) => e.asset, cell: (e) => <span className="font-mono text-xs font-bold whitespace-nowrap">{e.asset}</span> },
     {
       id: 'from',
-      header: 'Stopped',
+      header: 'Stopped – running again',
       sortValue: (e) => e.from,
       cell: (e) => (
-        <span className="whitespace-nowrap">
+        <span className="block whitespace-nowrap">
           {e.clippedAtStart && <span title="The stop began before the window or the data">… </span>}
           {formatDateTime(e.from)}
-        </span>
-      ),
-    },
-    {
-      id: 'to',
-      header: 'Running again',
-      sortValue: (e) => e.to,
-      cell: (e) => (
-        <span className="whitespace-nowrap">
-          {formatDateTime(e.to)}
-          {e.clippedAtEnd && <span title="Still stopped where the window or the data ends"> …</span>}
+          <span className="block text-xs text-basin-600">
+            to {formatDateTime(e.to)}
+            {e.clippedAtEnd && <span title="Still stopped where the window or the data ends"> …</span>}
+          </span>
         </span>
       ),
     },

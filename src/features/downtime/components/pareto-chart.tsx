@@ -25,7 +25,7 @@ function CumulativeLine({ bars, innerWidth, innerHeight }: BarCustomLayerProps<P
   return (
     <g>
       <line x1={0} x2={innerWidth} y1={y(0.8)} y2={y(0.8)} stroke={chartColors.muted} strokeDasharray="4 4" />
-      <text x={4} y={y(0.8) - 4} fontSize={11} fill={chartColors.muted}>
+      <text x={innerWidth - 4} y={y(0.8) - 4} textAnchor="end" fontSize={11} fill={chartColors.muted}>
         80 %
       </text>
       <path d={points.map((p, i) => `${i === 0 ? 'M' : 'L'}${p.x},${y(p.cumulative)}`).join('')} fill="none" stroke={chartColors.caution} strokeWidth={2} />
@@ -57,7 +57,7 @@ export function ParetoChart({ bars, axisLabel }: { bars: readonly ParetoBar[]; a
       data={bars}
       keys={['unplanned', 'planned']}
       indexBy="key"
-      margin={{ top: 12, right: 64, bottom: 72, left: 60 }}
+      margin={{ top: 36, right: 64, bottom: 72, left: 60 }}
       padding={0.25}
       colors={[chartColors.fault, chartColors.primarySoft]}
       enableLabel={false}
@@ -69,10 +69,10 @@ export function ParetoChart({ bars, axisLabel }: { bars: readonly ParetoBar[]; a
       legends={[
         {
           dataFrom: 'keys',
-          anchor: 'top-right',
-          direction: 'column',
-          translateX: -8,
-          itemWidth: 110,
+          anchor: 'top-left',
+          direction: 'row',
+          translateY: -30,
+          itemWidth: 100,
           itemHeight: 18,
           symbolSize: 10,
           data: [

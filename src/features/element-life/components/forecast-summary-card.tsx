@@ -3,7 +3,7 @@ import { Card } from '../../../components/ui/card.tsx';
 import { formatDate, formatMoney, formatNumber, formatShare } from '../../../lib/format.ts';
 import { useForecast } from '../api/get-forecast.ts';
 import type { ElementLifeParams } from '../api/get-element-life.ts';
-import { forecastTotals, monthLabel } from '../utils/forecast.ts';
+import { forecastTotals, monthLabel, monthShortLabel } from '../utils/forecast.ts';
 
 /** Dashboard: expected element replacements and their cost over the next 12 months, with the busiest months. */
 export function ForecastSummaryCard({ params, currency, footer }: { params: ElementLifeParams; currency: string; footer?: ReactNode }) {
@@ -11,6 +11,7 @@ export function ForecastSummaryCard({ params, currency, footer }: { params: Elem
   const { count, cost, inService, single } = forecastTotals(report);
   const busiest = [...report.totals].sort((a, b) => b.expectedCount - a.expectedCount).slice(0, 3);
   const band = `${formatShare(report.confidence, 0)} band`;
+  const top = Math.max(...report.totals.map((m) => m.expectedCount), 1e-9);
   return (
     <Card title="Element replacements, next 12 months" description={`Forecast from the Weibull fit for the ${formatNumber(inService, 0)} elements in service on ${formatDate(report.asOf)}.`}>
       <dl className="grid grid-cols-2 gap-x-6 gap-y-3">
@@ -33,6 +34,22 @@ export function ForecastSummaryCard({ params, currency, footer }: { params: Elem
           )}
         </div>
       </dl>
+      {report.totals.length > 0 && (
+        <div className="mt-4" aria-hidden="true">
+          <div className="flex h-16 items-end gap-1">
+            {report.totals.map((m) => (
+              <div key={m.label} className="flex-1 rounded-t-sm bg-tide-600" style={{ height: `${Math.max(2, (m.expectedCount / top) * 100)}%` }} title={`${monthLabel(m)}: ${formatNumber(m.expectedCount, 1)}`} />
+            ))}
+          </div>
+          <div className="mt-1 flex gap-1 text-center text-[10px] text-basin-600">
+            {report.totals.map((m) => (
+              <span key={m.label} className="flex-1 truncate">
+                {monthShortLabel(m.label)}
+              </span>
+            ))}
+          </div>
+        </div>
+      )}
       {busiest.length > 0 && (
         <p className="mt-3 text-sm text-basin-700">
           Busiest months: {busiest.map((m) => `${monthLabel(m)} (${formatNumber(m.expectedCount, 1)})`).join(', ')}.

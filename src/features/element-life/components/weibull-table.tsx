@@ -37,7 +37,7 @@ export function WeibullTable({ groups, confidenceLabel }: { groups: readonly Gro
   const columns: Column<Group>[] = [
     { id: 'group', header: 'Group', sortValue: (g) => g.key, cell: (g) => <span className="font-bold whitespace-nowrap text-basin-900">{groupKeyLabel(g.key)}</span> },
     { id: 'n', header: 'Lives', align: 'right', sortValue: (g) => g.n, cell: (g) => formatNumber(g.n, 0) },
-    { id: 'events', header: 'Ended (events)', align: 'right', sortValue: (g) => g.events, cell: (g) => formatNumber(g.events, 0) },
+    { id: 'events', header: 'Ended (events)', wrapHeader: true, align: 'right', sortValue: (g) => g.events, cell: (g) => formatNumber(g.events, 0) },
     {
       id: 'shape',
       header: 'Shape β',
@@ -86,7 +86,7 @@ export function WeibullTable({ groups, confidenceLabel }: { groups: readonly Gro
   ];
   return (
     <Table
-      caption={`Weibull fit by maximum likelihood with right censoring, ${confidenceLabel} likelihood-ratio intervals under the estimates; KM median from the Kaplan–Meier curve`}
+      caption={`Weibull fit (maximum likelihood, right-censored) with ${confidenceLabel} likelihood-ratio intervals under the estimates; KM median read from the Kaplan–Meier curve`}
       columns={columns}
       rows={groups}
       rowKey={(g) => g.key}

@@ -12,6 +12,14 @@ export function monthLabel(m: Pick<Month, 'label' | 'from' | 'to'>): string {
   return days < 27 ? `${name} (part)` : name;
 }
 
+const monthShort = new Intl.DateTimeFormat(undefined, { month: 'short', timeZone: 'UTC' });
+
+/** "Oct" from `2026-10`. */
+export function monthShortLabel(label: string): string {
+  const [year, month] = label.split('-').map(Number);
+  return Number.isFinite(year) && Number.isFinite(month) ? monthShort.format(Date.UTC(year, month - 1, 15)) : label;
+}
+
 /** Sums of the forecast over its groups (each group's own total is exact; a band exists only per group). */
 export function forecastTotals(report: ForecastReport) {
   const count = report.groups.reduce((n, g) => n + g.total.expectedCount, 0);

@@ -6,7 +6,7 @@ import { ErrorBoundary } from '../../../components/ui/error-boundary.tsx';
 import { Table, type Column } from '../../../components/ui/table.tsx';
 import { formatDateTime, formatNumber } from '../../../lib/format.ts';
 import { useImport, useImports, type ImportHistoryItem } from '../api/get-imports.ts';
-import { formatBytes, kindLabels, statusLabels, statusTones } from '../utils/labels.ts';
+import { formatBytes, kindShortLabels, statusLabels, statusTones } from '../utils/labels.ts';
 import { ImportRecordView } from './import-record-view.tsx';
 
 function Progress({ item }: { item: ImportHistoryItem }) {
@@ -37,8 +37,8 @@ export function ImportHistory() {
   const running = imports.filter((i) => i.status === 'running').length;
   const columns: Column<ImportHistoryItem>[] = [
     { id: 'started', header: 'Started', sortValue: (i) => i.startedAt, cell: (i) => <span className="whitespace-nowrap">{formatDateTime(i.startedAt)}</span> },
-    { id: 'kind', header: 'Kind', sortValue: (i) => i.kind, cell: (i) => <span className="whitespace-nowrap">{kindLabels[i.kind]}</span> },
-    { id: 'file', header: 'File', sortValue: (i) => i.file, cell: (i) => <span className="font-mono text-xs break-all">{i.file}</span> },
+    { id: 'kind', header: 'Kind', sortValue: (i) => i.kind, cell: (i) => <span className="whitespace-nowrap">{kindShortLabels[i.kind]}</span> },
+    { id: 'file', header: 'File', sortValue: (i) => i.file, cell: (i) => <span className="font-mono text-xs whitespace-nowrap">{i.file}</span> },
     { id: 'site', header: 'Site', sortValue: (i) => i.site, cell: (i) => i.site ?? '—' },
     {
       id: 'status',

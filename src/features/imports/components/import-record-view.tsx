@@ -3,7 +3,7 @@ import { Badge } from '../../../components/ui/badge.tsx';
 import { Table } from '../../../components/ui/table.tsx';
 import { env } from '../../../config/env.ts';
 import { formatDateTime, formatNumber } from '../../../lib/format.ts';
-import { describeNote, kindLabels, statusLabels, statusTones } from '../utils/labels.ts';
+import { describeNote, kindLabels, statusLabels, statusMeanings, statusTones } from '../utils/labels.ts';
 
 type Reject = ImportRecord['rejects'][number];
 
@@ -53,6 +53,11 @@ export function ImportRecordView({ record }: { record: ImportRecord }) {
           {record.site && ` · site ${record.site}`} · {formatDateTime(record.startedAt)} · {formatNumber(record.durationMs / 1000, 1)} s · by {record.actor}
         </span>
       </div>
+      <p className="text-sm text-basin-800">
+        {record.dryRun && record.status !== 'failed'
+          ? 'A dry run: nothing was kept; the counts say what importing the file would do.'
+          : statusMeanings[record.status]}
+      </p>
       {record.error && <p className="rounded-md border border-ember-200 bg-ember-50 px-3 py-2 text-sm text-ember-800">{record.error}</p>}
       <dl className="grid grid-cols-2 gap-x-6 gap-y-3 sm:grid-cols-5">
         {counts.map(([label, n]) => (

@@ -11,6 +11,16 @@ export const kindLabels: Record<ImportKind, string> = {
   'job-steps': 'Job steps',
 };
 
+/** Short names for tables. */
+export const kindShortLabels: Record<ImportKind, string> = {
+  historian: 'historian',
+  tags: 'tag map',
+  assets: 'assets',
+  'work-orders': 'work orders',
+  elements: 'elements',
+  'job-steps': 'job steps',
+};
+
 export const statusTones: Record<ImportStatus, BadgeTone> = {
   running: 'brand',
   completed: 'ok',
@@ -22,9 +32,18 @@ export const statusTones: Record<ImportStatus, BadgeTone> = {
 export const statusLabels: Record<ImportStatus, string> = {
   running: 'running',
   completed: 'completed',
-  partial: 'partial: rows rejected',
-  failed: 'failed: nothing kept',
-  duplicate: 'duplicate: already imported',
+  partial: 'partial',
+  failed: 'failed',
+  duplicate: 'duplicate',
+};
+
+/** What a status means for the data, said beside an import's record. */
+export const statusMeanings: Record<ImportStatus, string> = {
+  running: 'The import is still running.',
+  completed: 'Every row was read and kept.',
+  partial: 'The good rows were kept; the rejected rows are listed with their line number.',
+  failed: 'Nothing was kept.',
+  duplicate: 'This file was imported before: nothing changed.',
 };
 
 /** The canonical header of a kind, optional columns in brackets (DESIGN §5). */

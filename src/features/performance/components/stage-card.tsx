@@ -1,10 +1,11 @@
 import { lazy } from 'react';
 import type { PerformanceReport } from '#shared/schemas/kpi-ops.ts';
 import { ChartFrame } from '../../../components/charts/chart-frame.tsx';
+import { seriesColors } from '../../../components/charts/chart-theme.ts';
 import { Badge } from '../../../components/ui/badge.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { formatChangePct, formatDate, formatDateTime, formatNumber } from '../../../lib/format.ts';
-import type { PerformanceSeriesPoint } from './performance-chart.tsx';
+import type { ChangePoint } from './performance-chart.tsx';
 
 const PerformanceChart = lazy(() => import('./performance-chart.tsx').then((m) => ({ default: m.PerformanceChart })));
 
@@ -30,12 +31,16 @@ function Latest({ label, value, unit, change, alertAt }: { label: string; value:
 export function StageCard({ stage }: { stage: Stage }) {
   const t = stage.settings;
   const latest = stage.latest?.normalized;
-  const points: PerformanceSeriesPoint[] = stage.points.map((p) => ({
-    time: new Date(p.state.time),
-    flow: p.normalized.permeateFlowChangePct,
-    saltPassage: p.normalized.saltPassageChangePct,
-    dp: p.normalized.differentialPressureChangePct,
-  }));
+  const series = (pick: (n: Stage['points'][number]['normalized']) => [number | null, number | null]): ChangePoint[] =>
+    stage.points.map((p) => {
+      const [change, value] = pick(p.normalized);
+      return { time: new Date(p.state.time), change, value };
+    });
+  const charts = [
+    { quantity: 'Normalized permeate flow', unit: 'm³/h', color: seriesColors[0], threshold: -t.flowDropPct, points: series((n) => [n.permeateFlowChangePct, n.permeateFlowM3h]) },
+    { quantity: 'Normalized salt passage', unit: '%', color: seriesColors[1], threshold: t.saltPassageRisePct, points: series((n) => [n.saltPassageChangePct, n.saltPassagePct]) },
+    { quantity: 'Normalized differential pressure', unit: 'bar', color: seriesColors[2], threshold: t.dpRisePct, points: series((n) => [n.differentialPressureChangePct, n.differentialPressureBar]) },
+  ];
   const baseline = stage.baseline;
   const baselineText = baseline
     ? baseline.reason === 'after-reset'
@@ -64,14 +69,25 @@ export function StageCard({ stage }: { stage: Stage }) {
           </dl>
         </>
       )}
-      {points.length > 0 ? (
-        <ChartFrame
-          label={`Normalized performance of stage ${stage.asset}, ${points.length} days`}
-          height={300}
-          caption={`Daily means of the hours the train ran throughout, normalized to the baseline conditions (ASTM D4516; temperature correction U = ${formatNumber(t.uBelow25K, 0)} K below 25 °C, ${formatNumber(t.uAtOrAbove25K, 0)} K above; ${t.feedBrineAverage} feed-brine average). Days before the baseline are shown against it but raise no alert.`}
-        >
-          <PerformanceChart points={points} baseline={baseline ? new Date(baseline.time) : null} thresholds={{ flowDropPct: t.flowDropPct, saltPassageRisePct: t.saltPassageRisePct, dpRisePct: t.dpRisePct }} />
-        </ChartFrame>
+      {stage.points.length > 0 ? (
+        <>
+          <div className="grid gap-4 lg:grid-cols-3">
+            {charts.map((c) => (
+              <div key={c.quantity} className="min-w-0">
+                <h3 className="text-sm font-bold text-basin-800">{c.quantity}</h3>
+                <p className="text-xs text-basin-600">% change from the baseline; alert at {formatChangePct(c.threshold, 0)}</p>
+                <ChartFrame label={`${c.quantity} of stage ${stage.asset}, % change from the baseline over ${c.points.length} days`} height={200}>
+                  <PerformanceChart {...c} baseline={baseline ? new Date(baseline.time) : null} />
+                </ChartFrame>
+              </div>
+            ))}
+          </div>
+          <p className="mt-2 text-xs text-basin-600">
+            Daily means of the hours the train ran throughout, normalized to the baseline conditions (ASTM D4516; temperature correction U ={' '}
+            {formatNumber(t.uBelow25K, 0)} K below 25 °C, {formatNumber(t.uAtOrAbove25K, 0)} K above; {t.feedBrineAverage} feed-brine average). Days before
+            the baseline are shown against it but raise no alert.
+          </p>
+        </>
       ) : (
         <p className="text-sm text-basin-600">No running day with every quantity measured in this window.</p>
       )}

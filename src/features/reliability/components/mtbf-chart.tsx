@@ -13,7 +13,7 @@ export interface MtbfBar {
   failures: number;
 }
 
-/** Draws each bar's confidence interval as a whisker; a bound past the axis ends in an arrow. */
+/** Draws each bar's confidence interval as a whisker; an interval without an upper bound ends in an arrow. */
 function Whiskers({ bars, xScale, innerWidth }: BarCustomLayerProps<MtbfBar>) {
   const scale = xScale as (v: number) => number;
   return (
@@ -37,13 +37,26 @@ function Whiskers({ bars, xScale, innerWidth }: BarCustomLayerProps<MtbfBar>) {
   );
 }
 
+/** Powers of ten from 10 up to the first one at or above `max`: the ticks of a logarithmic hours axis. */
+function decades(max: number): number[] {
+  const out: number[] = [];
+  for (let v = 10; v < max * 10; v *= 10) {
+    out.push(v);
+    if (v >= max) break;
+  }
+  return out;
+}
+
 /**
- * MTBF per asset as horizontal bars, worst first, with the confidence bounds as whiskers. The axis ends a
- * little past the longest MTBF: an upper bound beyond it is drawn as an arrow (the table gives its value).
+ * MTBF per asset as horizontal bars, shortest on top, with the confidence bounds as whiskers. MTBF of a
+ * plant's assets spans hundreds to tens of thousands of hours, and one-failure bounds span a factor of
+ * a hundred, so the axis is logarithmic (a symmetric log, which also takes 0).
  */
 export function MtbfChart({ bars, confidenceLabel }: { bars: readonly MtbfBar[]; confidenceLabel: string }) {
-  const longest = Math.max(...bars.map((b) => b.mtbf), 1);
-  // Bars are listed bottom-up by nivo's horizontal layout: reverse so the shortest MTBF is on top.
+  const top = Math.max(...bars.map((b) => Math.max(b.mtbf, b.upper)), 10);
+  const ticks = decades(top);
+  const max = ticks[ticks.length - 1];
+  // nivo's horizontal layout draws the first datum at the bottom: longest first puts the shortest on top.
   const data = [...bars].sort((a, b) => b.mtbf - a.mtbf);
   return (
     <ResponsiveBar<MtbfBar>
@@ -53,25 +66,26 @@ export function MtbfChart({ bars, confidenceLabel }: { bars: readonly MtbfBar[];
       layout="horizontal"
       margin={{ top: 8, right: 24, bottom: 44, left: 104 }}
       padding={0.35}
-      valueScale={{ type: 'linear', min: 0, max: longest * 1.35, nice: false }}
+      valueScale={{ type: 'symlog', constant: 1, min: 0, max, nice: false }}
       colors={[chartColors.primarySoft]}
       borderColor={chartColors.primary}
       borderWidth={1}
       enableLabel={false}
       enableGridX
+      gridXValues={ticks}
       enableGridY={false}
       theme={chartTheme}
       axisLeft={{ tickSize: 0, tickPadding: 8 }}
-      axisBottom={{ legend: 'MTBF, hours', legendPosition: 'middle', legendOffset: 36, format: (v) => formatNumber(Number(v), 0) }}
+      axisBottom={{ legend: 'MTBF, hours (logarithmic)', legendPosition: 'middle', legendOffset: 36, tickValues: ticks, format: (v) => formatNumber(Number(v), 0) }}
       layers={['grid', 'axes', 'bars', Whiskers]}
       animate={false}
-      tooltip={({ data }) => (
+      tooltip={({ data: d }) => (
         <ChartTooltip
-          title={data.label}
+          title={d.label}
           rows={[
-            ['MTBF', formatHours(data.mtbf, 0)],
-            [`${confidenceLabel} bounds`, `${formatNumber(data.lower, 0)} – ${data.upper < 0 ? '∞' : formatNumber(data.upper, 0)} h`],
-            ['Failures', formatNumber(data.failures, 0)],
+            ['MTBF', formatHours(d.mtbf, 0)],
+            [`${confidenceLabel} bounds`, `${formatNumber(d.lower, 0)} – ${d.upper < 0 ? '∞' : formatNumber(d.upper, 0)} h`],
+            ['Failures', formatNumber(d.failures, 0)],
           ]}
         />
       )}

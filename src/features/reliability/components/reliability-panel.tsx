@@ -53,7 +53,7 @@ export function ReliabilityPanel({ params }: { params: ReliabilityParams }) {
 
       <Card
         title="MTBF by asset"
-        description="Shortest MTBF on top. The whisker spans the confidence bounds; an arrow means the upper bound lies beyond the axis."
+        description="Shortest MTBF on top, on a logarithmic axis. The whisker spans the confidence bounds; an arrow means there is no upper bound."
         actions={
           <Select
             label="Group by"

@@ -21,10 +21,10 @@ export function ReliabilityTable({ groups, confidence, groupBy }: { groups: read
       id: 'asset',
       header: groupBy === 'kind' ? 'Asset kind' : 'Asset',
       sortValue: groupLabel,
-      cell: (g) => <span className="font-mono text-xs font-bold text-basin-900">{groupLabel(g)}</span>,
+      cell: (g) => <span className="font-mono text-xs font-bold whitespace-nowrap text-basin-900">{groupLabel(g)}</span>,
     },
     { id: 'failures', header: 'Failures', align: 'right', sortValue: (g) => g.failures, cell: (g) => formatNumber(g.failures, 0) },
-    { id: 'operating', header: 'Operating time', align: 'right', sortValue: (g) => g.operatingHours, cell: (g) => formatHours(g.operatingHours, 0) },
+    { id: 'operating', header: 'Operating time', wrapHeader: true, align: 'right', sortValue: (g) => g.operatingHours, cell: (g) => formatHours(g.operatingHours, 0) },
     {
       id: 'mtbf',
       header: 'MTBF',
@@ -35,6 +35,7 @@ export function ReliabilityTable({ groups, confidence, groupBy }: { groups: read
     {
       id: 'bounds',
       header: `MTBF ${formatShare(confidence, 0)} bounds`,
+      wrapHeader: true,
       align: 'right',
       sortValue: (g) => g.mtbfLowerHours,
       cell: (g) =>
@@ -56,6 +57,7 @@ export function ReliabilityTable({ groups, confidence, groupBy }: { groups: read
     {
       id: 'availability',
       header: 'Inherent availability',
+      wrapHeader: true,
       align: 'right',
       sortValue: (g) => g.availability,
       cell: (g) => (g.availability === null ? <Missing reason={nullReasonText(g.reasons?.availability)} /> : formatShare(g.availability, 2)),
@@ -63,6 +65,7 @@ export function ReliabilityTable({ groups, confidence, groupBy }: { groups: read
     {
       id: 'operational',
       header: 'Operational availability',
+      wrapHeader: true,
       align: 'right',
       sortValue: (g) => g.operationalAvailability,
       cell: (g) => formatShare(g.operationalAvailability, 2),
@@ -70,6 +73,7 @@ export function ReliabilityTable({ groups, confidence, groupBy }: { groups: read
     {
       id: 'source',
       header: 'Operating time from',
+      wrapHeader: true,
       sortValue: (g) => g.operatingTimeSource,
       cell: (g) => <span className="whitespace-nowrap text-basin-700">{g.operatingTimeSource ? operatingTimeSourceLabels[g.operatingTimeSource] : '—'}</span>,
     },

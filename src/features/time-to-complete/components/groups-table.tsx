@@ -12,8 +12,8 @@ export function GroupsTable({ groups, quantileMethod }: { groups: readonly Group
   const hours = (g: Group, v: number | null | undefined) =>
     v === null || v === undefined ? <span className="text-basin-600" title={nullReasonText(g.reason)}>—</span> : formatHours(v, 2);
   const columns: Column<Group>[] = [
-    { id: 'kind', header: 'Grouped by', sortValue: (g) => groupOrder(g.key), cell: (g) => <span className="text-basin-700">{describeGroup(g.key).kind}</span> },
-    { id: 'value', header: 'Group', sortValue: (g) => describeGroup(g.key).value, cell: (g) => <span className="font-bold text-basin-900">{describeGroup(g.key).value || '—'}</span> },
+    { id: 'kind', header: 'Grouped by', sortValue: (g) => groupOrder(g.key), cell: (g) => <span className="whitespace-nowrap text-basin-700">{describeGroup(g.key).kind}</span> },
+    { id: 'value', header: 'Group', sortValue: (g) => describeGroup(g.key).value, cell: (g) => <span className="font-bold whitespace-nowrap text-basin-900">{describeGroup(g.key).value || '—'}</span> },
     { id: 'n', header: 'Jobs', align: 'right', sortValue: (g) => g.n, cell: (g) => formatNumber(g.n, 0) },
     { id: 'mean', header: 'Mean', align: 'right', sortValue: (g) => g.meanHours, cell: (g) => hours(g, g.meanHours) },
     { id: 'median', header: 'Median', align: 'right', sortValue: (g) => g.medianHours, cell: (g) => <strong>{hours(g, g.medianHours)}</strong> },

@@ -1,6 +1,6 @@
 import type { TimeToCompleteReport } from '#shared/schemas/kpi.ts';
 import { Card } from '../../../components/ui/card.tsx';
-import { formatHours, formatNumber } from '../../../lib/format.ts';
+import { formatHours, formatHoursOrMinutes, formatNumber } from '../../../lib/format.ts';
 
 type Group = TimeToCompleteReport['groups'][number];
 
@@ -44,7 +44,7 @@ export function GuidedComparison({ groups }: { groups: readonly Group[] }) {
     sentence =
       Math.abs(diff) < 1e-9
         ? `Guided and unguided jobs have the same median (${guided!.n} and ${unguided!.n} jobs).`
-        : `With the procedure open, the median job took ${formatHours(Math.abs(diff), 2)} (${formatNumber(pct, 0)} %) ${diff < 0 ? 'less' : 'more'} than without (${guided!.n} and ${unguided!.n} jobs; a comparison of medians, not a significance test).`;
+        : `With the procedure open, the median job took ${formatHoursOrMinutes(Math.abs(diff))} (${formatNumber(pct, 0)} %) ${diff < 0 ? 'less' : 'more'} than without (${guided!.n} and ${unguided!.n} jobs; a comparison of medians, not a significance test).`;
   }
   return (
     <Card title="Guided vs unguided" description="A job counts as guided when any of its steps was done with the written procedure open.">

@@ -9,13 +9,13 @@ type Job = TimeToCompleteReport['jobs'][number];
 export function JobsTable({ jobs }: { jobs: readonly Job[] }) {
   const columns: Column<Job>[] = [
     { id: 'wo', header: 'Work order', sortValue: (j) => j.woNumber, cell: (j) => <span className="font-mono text-xs font-bold">{j.woNumber}</span> },
-    { id: 'procedure', header: 'Job', sortValue: (j) => j.procedure ?? null, cell: (j) => j.procedure ?? '—' },
+    { id: 'procedure', header: 'Job', sortValue: (j) => j.procedure ?? null, cell: (j) => <span className="whitespace-nowrap">{j.procedure ?? '—'}</span> },
     { id: 'crew', header: 'Crew', sortValue: (j) => j.crew ?? null, cell: (j) => j.crew ?? '—' },
     {
       id: 'guided',
       header: 'Procedure',
       sortValue: (j) => (j.guided ? 1 : 0),
-      cell: (j) => (j.guided ? <Badge tone="ok">followed</Badge> : <Badge tone="neutral">not followed</Badge>),
+      cell: (j) => <span className="whitespace-nowrap">{j.guided ? <Badge tone="ok">followed</Badge> : <Badge tone="neutral">not followed</Badge>}</span>,
     },
     { id: 'steps', header: 'Steps', align: 'right', sortValue: (j) => j.steps ?? null, cell: (j) => formatNumber(j.steps, 0) },
     { id: 'start', header: 'Started', sortValue: (j) => j.startedAt, cell: (j) => <span className="whitespace-nowrap">{formatDateTime(j.startedAt)}</span> },

@@ -1,0 +1,96 @@
+// The KPIs Osmia answers, in one list: name, who may read it, its query and answer schemas, and the
+// service that computes it. GET /api/kpi/<name> and `osmia kpi <name>` are both built from it.
+import type { ZodType } from 'zod';
+import { roles, type Role } from '#shared/schemas/enums.ts';
+import {
+  elementLifeQuerySchema,
+  elementLifeReportSchema,
+  forecastQuerySchema,
+  forecastReportSchema,
+  reliabilityQuerySchema,
+  reliabilityReportSchema,
+  timeToCompleteQuerySchema,
+  timeToCompleteReportSchema,
+} from '#shared/schemas/kpi.ts';
+import {
+  downtimeQuerySchema,
+  downtimeReportSchema,
+  maintenanceMixQuerySchema,
+  maintenanceMixReportSchema,
+  performanceQuerySchema,
+  performanceReportSchema,
+} from '#shared/schemas/kpi-ops.ts';
+import type { Db } from '../db/client.ts';
+
+export type KpiService = (db: Db, query: never) => Promise<unknown>;
+
+export interface KpiEntry {
+  name: string;
+  summary: string;
+  access: readonly Role[];
+  query: ZodType;
+  response: ZodType;
+  /** Loaded on first use, so a CLI command that does not need it starts faster. */
+  load: () => Promise<KpiService>;
+}
+
+const operations = ['admin', 'engineer', 'manager'] as const;
+
+export const kpiCatalog: KpiEntry[] = [
+  {
+    name: 'reliability',
+    summary: 'MTBF with confidence bounds, MTTR, availability',
+    access: operations,
+    query: reliabilityQuerySchema,
+    response: reliabilityReportSchema,
+    load: async () => (await import('./reliability.ts')).getReliability,
+  },
+  {
+    name: 'element-life',
+    summary: 'Element survival (Kaplan–Meier) and Weibull life by group',
+    access: roles,
+    query: elementLifeQuerySchema,
+    response: elementLifeReportSchema,
+    load: async () => (await import('./element-life.ts')).getElementLife,
+  },
+  {
+    name: 'forecast',
+    summary: 'Expected element replacements and cost for the next 12 months',
+    access: roles,
+    query: forecastQuerySchema,
+    response: forecastReportSchema,
+    load: async () => (await import('./forecast.ts')).getForecast,
+  },
+  {
+    name: 'time-to-complete',
+    summary: 'Job durations by procedure, crew and guided vs unguided',
+    access: operations,
+    query: timeToCompleteQuerySchema,
+    response: timeToCompleteReportSchema,
+    load: async () => (await import('./time-to-complete.ts')).getTimeToComplete,
+  },
+  {
+    name: 'downtime',
+    summary: 'Stops, planned vs unplanned, causes, lost volume and cost',
+    access: roles,
+    query: downtimeQuerySchema,
+    response: downtimeReportSchema,
+    load: async () => (await import('./downtime.ts')).getDowntime,
+  },
+  {
+    name: 'performance',
+    summary: 'Normalized membrane performance per train and stage (ASTM D4516)',
+    access: operations,
+    query: performanceQuerySchema,
+    response: performanceReportSchema,
+    load: async () => (await import('./performance.ts')).getPerformance,
+  },
+  {
+    name: 'maintenance-mix',
+    summary: 'Planned vs reactive hours, PM compliance, backlog, cost per m³',
+    access: roles,
+    query: maintenanceMixQuerySchema,
+    response: maintenanceMixReportSchema,
+    load: async () => (await import('./maintenance-mix.ts')).getMaintenanceMix,
+  },
+];

@@ -1,0 +1,75 @@
+// One argv smoke test per command of bin/osmia, through the real launcher, against a test database.
+import { spawnSync } from 'node:child_process';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { importRecordSchema } from '#shared/schemas/imports.ts';
+import { reliabilityReportSchema } from '#shared/schemas/kpi.ts';
+import { createTestDatabase, type TestDatabase } from '../setup/db.ts';
+import { fileWith, plant } from '../server/importers/helpers.ts';
+
+const osmia = join(import.meta.dirname, '..', '..', 'bin', 'osmia');
+let t: TestDatabase;
+beforeAll(async () => {
+  t = await createTestDatabase();
+});
+afterAll(() => t.close());
+
+function cli(...args: string[]) {
+  const r = spawnSync(osmia, args, { env: { ...process.env, DATABASE_URL: t.url, CI: '1' }, encoding: 'utf8', timeout: 120_000 });
+  return { code: r.status, out: r.stdout, err: r.stderr };
+}
+
+describe('bin/osmia', () => {
+  it('prints help for every command and exits 0', () => {
+    for (const args of [['--help'], ['db', '--help'], ['import', '--help'], ['kpi', 'reliability', '--help'], ['refresh', '--help'], ['seed', '--help'], ['user', 'add', '--help'], ['serve', '--help']]) {
+      const r = cli(...args);
+      expect(r.code, args.join(' ')).toBe(0);
+      expect(r.out).toMatch(/Usage: osmia/);
+    }
+  });
+
+  it('exits 2 on a usage error: unknown command, bad flag value, missing option', () => {
+    expect(cli('frobnicate').code).toBe(2);
+    expect(cli('kpi', 'reliability', '--confidence', '2').code).toBe(2);
+    expect(cli('user', 'add', '--email', 'x@y.example').code).toBe(2);
+    expect(cli('db', 'reset').code).toBe(2);
+  });
+
+  it('db status --json names the database it uses', () => {
+    const r = cli('db', 'status', '--json');
+    expect(r.code).toBe(0);
+    expect(JSON.parse(r.out)).toEqual({ running: true, url: t.url });
+  });
+
+  it('user add and user list', () => {
+    expect(cli('user', 'add', '--email', 'cli@test.example', '--role', 'finance', '--password', 'a-long-password').code).toBe(0);
+    const list = cli('user', 'list', '--json');
+    expect(JSON.parse(list.out).map((u: { email: string }) => u.email)).toContain('cli@test.example');
+    expect(cli('user', 'add', '--email', 'cli@test.example', '--role', 'finance', '--password', 'a-long-password').code).toBe(1);
+  });
+
+  it('import: 0 when every row went in, 3 when some were rejected, 1 when the file failed; --json is the import record', () => {
+    const assets = cli('import', 'assets', fileWith(plant.assets), '--site', 'CLI', '--tz', 'Europe/Berlin', '--json');
+    expect(assets.code).toBe(0);
+    expect(importRecordSchema.parse(JSON.parse(assets.out))).toMatchObject({ status: 'completed', rowsInserted: 5 });
+    const tags = cli('import', 'tags', fileWith(plant.tags + '\nBAD,NOPE,feed_flow,m3/h\n'), '--json');
+    expect(tags.code).toBe(3);
+    expect(JSON.parse(tags.out).rejects).toEqual([{ line: 8, reason: 'unknown asset "NOPE" on site CLI' }]);
+    const empty = cli('import', 'tags', fileWith(''));
+    expect(empty.code).toBe(1);
+    expect(empty.out).toMatch(/empty/);
+    expect(cli('import', 'tags', '/no/such/file.csv').code).toBe(1);
+  });
+
+  it('refresh, then kpi reliability --json prints the DESIGN §7 object', () => {
+    cli('import', 'historian', fileWith('timestamp,tag,value\n2026-01-01T00:00:00Z,TR1.RUN,1\n2026-01-01T10:00:00Z,TR1.RUN,0\n'));
+    expect(cli('refresh').code).toBe(0);
+    const r = cli('kpi', 'reliability', '--asset', 'TR1', '--json');
+    expect(r.code).toBe(0);
+    const report = reliabilityReportSchema.parse(JSON.parse(r.out));
+    expect(report).toMatchObject({ asset: 'TR1', failures: 0, confidence: 0.9, operatingHours: 10 });
+    const table = cli('kpi', 'reliability', '--asset', 'TR1');
+    expect(table.code).toBe(0);
+    expect(table.out).toMatch(/MTBF/);
+  });
+});
