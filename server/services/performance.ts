@@ -10,7 +10,7 @@ import {
 } from '#shared/kpi/performance.ts';
 import type { Quantity } from '#shared/schemas/enums.ts';
 import type { Provenance } from '#shared/schemas/kpi.ts';
-import type { PerformanceQuery, PerformanceReport } from '#shared/schemas/kpi-ops.ts';
+import { summaryNormalizedKeys, summaryStateKeys, type PerformanceQuery, type PerformanceReport } from '#shared/schemas/kpi-ops.ts';
 import type { Settings } from '#shared/schemas/settings.ts';
 import type { Db } from '../db/client.ts';
 import type { AssetRecord } from '../db/queries/assets.ts';
@@ -48,6 +48,11 @@ export const cleaningDescription = /clean[- ]in[- ]place|\bCIP\b|cleaning/i;
 
 type Stage = PerformanceReport['stages'][number];
 type Point = Stage['points'][number];
+
+/** The listed keys of an object. */
+function pick<T extends object, K extends keyof T>(from: T, keys: readonly K[]): Pick<T, K> {
+  return Object.fromEntries(keys.map((k) => [k, from[k]])) as Pick<T, K>;
+}
 
 /** One stage's answer, with what it was computed from and, when it has no figures, why. */
 export type PerformanceStageAnswer = Omit<Stage, 'points'> & {
@@ -210,7 +215,10 @@ export async function getPerformance(db: Db, query: PerformanceQuery): Promise<P
       asset: stage.code,
       train: train?.code ?? null,
       baseline: result.baseline,
-      points: result.points.map((p) => ({ ...p, runningHours: hoursOf.get(p.state.time) ?? 0 })),
+      points: result.points.map((p) => ({
+        ...(query.detail === 'full' ? p : { state: pick(p.state, summaryStateKeys), normalized: pick(p.normalized, summaryNormalizedKeys) }),
+        runningHours: hoursOf.get(p.state.time) ?? 0,
+      })),
       latest: result.latest,
       alerts: result.alerts,
       settings: result.settings,

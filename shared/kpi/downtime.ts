@@ -357,9 +357,11 @@ export function downtimeReport(input: DowntimeInput): DowntimeResult {
       notes.push(`${asset.asset} (${asset.runStatusTag}) has run-status data only until ${assetWindow.to.toISOString()}: stops are cut there.`);
     }
     const assetEvents: DowntimeEvent[] = [];
+    // The work orders that can touch this asset's stops, found once rather than for every stop.
+    const candidates = workOrders.filter((wo) => wo.oos !== null && wo.status !== 'cancelled' && scope.has(wo.asset) && wo.oos.toMs > assetWindow.from.getTime());
     for (const stop of stopSpans(asset.samples, assetWindow, asset.priorSample)) {
       const hours = hoursBetween(stop.fromMs, stop.toMs);
-      const c = classifyStop(stop, scope, workOrders);
+      const c = classifyStop(stop, scope, candidates);
       const lostVolumeM3 = asset.ratedPermeateM3h === null ? null : hours * asset.ratedPermeateM3h;
       assetEvents.push({
         asset: asset.asset,

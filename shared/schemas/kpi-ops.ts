@@ -27,6 +27,8 @@ export const performanceQuerySchema = windowQuerySchema.extend({
   feedBrineAverage: z.enum(feedBrineAverages).default('log-mean'),
   /** Apply the viscosity term 1 + 0.017(T − 25) to normalized ΔP (a variant; off by default). */
   viscosityCorrection: z.union([z.boolean(), z.stringbool()]).default(false),
+  /** summary: each daily point keeps the figures a chart needs; full: every intermediate of every point. */
+  detail: z.enum(['summary', 'full']).default('summary'),
 });
 export type PerformanceQuery = z.infer<typeof performanceQuerySchema>;
 
@@ -82,6 +84,27 @@ export const normalizedValuesSchema = z.object({
 
 export const normalizedPointSchema = z.object({ state: stageStateSchema, normalized: normalizedValuesSchema });
 
+/** Figures kept for each daily point with detail=summary (the default). */
+export const summaryStateKeys = ['time', 'tempC', 'tcf', 'recovery', 'netDrivingPressureBar', 'permeateFlowM3h', 'saltPassagePct', 'differentialPressureBar'] as const;
+export const summaryNormalizedKeys = [
+  'permeateFlowM3h',
+  'saltPassagePct',
+  'differentialPressureBar',
+  'permeateFlowChangePct',
+  'saltPassageChangePct',
+  'differentialPressureChangePct',
+  'nullReason',
+] as const;
+
+/** A daily point of the series: every figure with detail=full, the summary keys otherwise. */
+export const seriesPointSchema = z.object({
+  state: stageStateSchema.partial().required(Object.fromEntries(summaryStateKeys.map((k) => [k, true])) as { [K in (typeof summaryStateKeys)[number]]: true }),
+  normalized: normalizedValuesSchema
+    .partial()
+    .required(Object.fromEntries(summaryNormalizedKeys.map((k) => [k, true])) as { [K in (typeof summaryNormalizedKeys)[number]]: true }),
+  runningHours: z.number().nonnegative().optional(),
+});
+
 export const performanceAlertSchema = z.object({
   kind: z.enum(['permeate-flow-drop', 'differential-pressure-rise', 'salt-passage-rise']),
   time: isoInstantSchema,
@@ -112,7 +135,7 @@ export const performanceStageSchema = z.object({
   /** Train the stage belongs to, when known. */
   train: z.string().nullable().optional(),
   baseline: performanceBaselineSchema.nullable(),
-  points: z.array(normalizedPointSchema),
+  points: z.array(seriesPointSchema),
   latest: normalizedPointSchema.nullable(),
   alerts: z.array(performanceAlertSchema),
   settings: performanceSettingsSchema,

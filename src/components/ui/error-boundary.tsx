@@ -61,6 +61,14 @@ export function SectionError({ title, error, onRetry }: { title: string; error: 
       </Alert>
     );
   }
+  // A fresh server holds no plant yet: not a failure, the data simply is not there.
+  if (isApiError(error, 404) && error.code === 'site-not-found') {
+    return (
+      <Alert tone="info" title={`${title}: no plant data yet`}>
+        {getErrorMessage(error)}
+      </Alert>
+    );
+  }
   if (isApiError(error, 403)) {
     return (
       <Alert tone="warning" title={`${title}: not available to your role`}>

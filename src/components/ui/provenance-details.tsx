@@ -1,12 +1,13 @@
 import type { Provenance } from '#shared/schemas/kpi.ts';
 import { formatDateTime } from '../../lib/format.ts';
 
-function CodeList({ title, items }: { title: string; items: readonly (string | number)[] }) {
+function CodeList({ title, items, total = items.length }: { title: string; items: readonly (string | number)[]; total?: number }) {
   if (items.length === 0) return null;
   return (
     <div>
       <h3 className="text-xs font-bold tracking-wide text-basin-700 uppercase">
-        {title} <span className="font-normal normal-case">({items.length})</span>
+        {title}{' '}
+        <span className="font-normal normal-case">({total > items.length ? `the first ${items.length} of ${total}` : items.length})</span>
       </h3>
       <ul className="mt-1 flex max-h-40 flex-wrap gap-1 overflow-y-auto">
         {items.map((item) => (
@@ -26,10 +27,13 @@ function CodeList({ title, items }: { title: string; items: readonly (string | n
 export function ProvenanceDetails({ provenance, className }: { provenance: Provenance | undefined; className?: string }) {
   if (!provenance) return null;
   const { workOrders, tags, windows, elements = [], imports = [] } = provenance;
+  // Long lists are capped by the server; the counts say how many there were.
+  const workOrderCount = Math.max(provenance.workOrderCount ?? 0, workOrders.length);
+  const elementCount = Math.max(provenance.elementCount ?? 0, elements.length);
   const counts = [
-    [workOrders.length, 'work order', 'work orders'],
+    [workOrderCount, 'work order', 'work orders'],
     [tags.length, 'tag', 'tags'],
-    [elements.length, 'element', 'elements'],
+    [elementCount, 'element', 'elements'],
     [windows.length, 'time window', 'time windows'],
   ] as const;
   const summary = counts
@@ -39,12 +43,13 @@ export function ProvenanceDetails({ provenance, className }: { provenance: Prove
   return (
     <details className={className}>
       <summary className="cursor-pointer text-sm font-bold text-tide-700 hover:text-tide-800">
-        Inputs behind these figures: {summary || 'none recorded'}
+        Computed from {summary || 'no recorded inputs'}
       </summary>
       <div className="mt-3 space-y-3 rounded-md border border-basin-200 bg-basin-50 p-3">
-        <CodeList title="Work orders" items={workOrders} />
+        <CodeList title="Work orders" items={workOrders} total={workOrderCount} />
         <CodeList title="Historian tags" items={tags} />
-        <CodeList title="Elements" items={elements} />
+        <CodeList title="Elements" items={elements} total={elementCount} />
+        {provenance.trains && <CodeList title="Trains" items={provenance.trains} />}
         <CodeList title="Imports" items={imports} />
         {windows.length > 0 && (
           <div>

@@ -32,7 +32,7 @@ function ndp(p: { pf: number; pc: number; pp: number; qf: number; qp: number; cf
 
 describe('a stage at constant conditions', () => {
   it('shows a 0 % change on every day, from the days the train ran throughout', async () => {
-    const report = performanceReportSchema.parse(await run({ asset: 'TR1-S1' }));
+    const report = performanceReportSchema.parse(await run({ asset: 'TR1-S1', detail: 'full' }));
     expect(report.stages.map((s) => s.asset)).toEqual(['TR1-S1']);
     const stage = report.stages[0]!;
     expect(stage.train).toBe('TR1');
@@ -48,6 +48,11 @@ describe('a stage at constant conditions', () => {
       expect(p.normalized.differentialPressureChangePct).toBeCloseTo(0, 10);
     }
     expect(stage.latest!.state.netDrivingPressureBar).toBeCloseTo(ndp(stageBase), 10);
+    // The default summary keeps the charted figures of each point and leaves the intermediates out.
+    const summary = performanceReportSchema.parse(await run({ asset: 'TR1-S1' })).stages[0]!.points[0]!;
+    expect(summary.state.permeateFlowM3h).toBeCloseTo(stageBase.qp, 12);
+    expect(summary.state.measuredConcentrateFlowM3h).toBeUndefined();
+    expect(summary.normalized.permeateFlowChangePct).toBeCloseTo(0, 10);
     expect(stage.alerts).toEqual([]);
   });
 

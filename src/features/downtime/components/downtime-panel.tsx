@@ -2,8 +2,9 @@ import { lazy } from 'react';
 import type { DowntimeReport } from '#shared/schemas/kpi-ops.ts';
 import { ChartFrame } from '../../../components/charts/chart-frame.tsx';
 import { Card } from '../../../components/ui/card.tsx';
+import { NotesDetails } from '../../../components/ui/notes-details.tsx';
 import { ProvenanceDetails } from '../../../components/ui/provenance-details.tsx';
-import { formatDate, formatMoney, formatNumber } from '../../../lib/format.ts';
+import { formatDate, formatMoney } from '../../../lib/format.ts';
 import { useDowntime, type DowntimeParams } from '../api/get-downtime.ts';
 import { causeLabel } from '../utils/labels.ts';
 import { DowntimeEventsTable, DowntimeTotalsTable } from './downtime-tables.tsx';
@@ -52,16 +53,7 @@ export function DowntimePanel({ params, currency }: { params: DowntimeParams; cu
         </p>
       </div>
       <DowntimeEventsTable events={report.events} currency={currency} />
-      {report.notes.length > 0 && (
-        <details>
-          <summary className="cursor-pointer text-sm font-bold text-tide-700 hover:text-tide-800">Notes on the data ({formatNumber(report.notes.length, 0)})</summary>
-          <ul className="mt-2 list-disc space-y-1 pl-6 text-sm text-basin-800">
-            {report.notes.map((n) => (
-              <li key={n}>{n}</li>
-            ))}
-          </ul>
-        </details>
-      )}
+      <NotesDetails notes={report.notes} />
       <ProvenanceDetails provenance={report.provenance} />
     </div>
   );

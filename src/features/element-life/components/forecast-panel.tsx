@@ -3,6 +3,7 @@ import { vesselWorkCautions } from '#shared/cautions.ts';
 import type { ForecastReport } from '#shared/schemas/kpi.ts';
 import { ChartFrame } from '../../../components/charts/chart-frame.tsx';
 import { Card } from '../../../components/ui/card.tsx';
+import { NotesDetails } from '../../../components/ui/notes-details.tsx';
 import { ProvenanceDetails } from '../../../components/ui/provenance-details.tsx';
 import { SafetyNote } from '../../../components/ui/safety-note.tsx';
 import { Table, type Column } from '../../../components/ui/table.tsx';
@@ -37,7 +38,7 @@ export function ForecastPanel({ params, currency }: { params: ElementLifeParams;
   const bars: ForecastBar[] = report.totals.map((m) => {
     const band = byMonth.get(m.label);
     return {
-      month: monthLabel(m),
+      month: monthLabel({ ...m, partial: band?.partial }),
       count: m.expectedCount,
       lower: band?.countLower ?? -1,
       upper: band?.countUpper ?? -1,
@@ -118,6 +119,7 @@ export function ForecastPanel({ params, currency }: { params: ElementLifeParams;
           <Table caption="Forecast by group" columns={columns} rows={report.groups} rowKey={(g) => g.key} />
         </div>
       )}
+      <NotesDetails notes={report.notes} className="mt-4" />
       <ProvenanceDetails provenance={report.provenance} className="mt-4" />
     </Card>
   );

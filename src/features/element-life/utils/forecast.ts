@@ -5,11 +5,12 @@ type Month = ForecastReport['totals'][number];
 const monthName = new Intl.DateTimeFormat(undefined, { month: 'short', year: 'numeric', timeZone: 'UTC' });
 
 /** "Oct 2026"; a month the horizon only touches (it starts or ends inside it) is marked "(part)". */
-export function monthLabel(m: Pick<Month, 'label' | 'from' | 'to'>): string {
+export function monthLabel(m: Pick<Month, 'label' | 'from' | 'to'> & { partial?: boolean }): string {
   const [year, month] = m.label.split('-').map(Number);
   const name = Number.isFinite(year) && Number.isFinite(month) ? monthName.format(Date.UTC(year, month - 1, 15)) : m.label;
-  const days = (Date.parse(m.to) - Date.parse(m.from)) / 86_400_000;
-  return days < 27 ? `${name} (part)` : name;
+  // Older answers do not say `partial`: a span shorter than any month is one.
+  const partial = m.partial ?? (Date.parse(m.to) - Date.parse(m.from)) / 86_400_000 < 27;
+  return partial ? `${name} (part)` : name;
 }
 
 const monthShort = new Intl.DateTimeFormat(undefined, { month: 'short', timeZone: 'UTC' });

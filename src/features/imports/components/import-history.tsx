@@ -36,9 +36,28 @@ export function ImportHistory() {
   const [openId, setOpenId] = useState<number | null>(null);
   const running = imports.filter((i) => i.status === 'running').length;
   const columns: Column<ImportHistoryItem>[] = [
-    { id: 'started', header: 'Started', sortValue: (i) => i.startedAt, cell: (i) => <span className="whitespace-nowrap">{formatDateTime(i.startedAt)}</span> },
-    { id: 'kind', header: 'Kind', sortValue: (i) => i.kind, cell: (i) => <span className="whitespace-nowrap">{kindShortLabels[i.kind]}</span> },
-    { id: 'file', header: 'File', sortValue: (i) => i.file, cell: (i) => <span className="font-mono text-xs whitespace-nowrap">{i.file}</span> },
+    {
+      id: 'started',
+      header: 'Started',
+      sortValue: (i) => i.startedAt,
+      cell: (i) => (
+        <span className="block whitespace-nowrap">
+          {formatDateTime(i.startedAt)}
+          <span className="block text-xs text-basin-600">by {i.actor}</span>
+        </span>
+      ),
+    },
+    {
+      id: 'file',
+      header: 'File',
+      sortValue: (i) => i.file,
+      cell: (i) => (
+        <span className="block">
+          <span className="font-mono text-xs break-all text-basin-900">{i.file}</span>
+          <span className="block text-xs text-basin-600">{kindShortLabels[i.kind]}</span>
+        </span>
+      ),
+    },
     { id: 'site', header: 'Site', sortValue: (i) => i.site, cell: (i) => i.site ?? '—' },
     {
       id: 'status',
@@ -56,7 +75,6 @@ export function ImportHistory() {
       cell: (i) => <span className={i.rowsRejected > 0 ? 'font-bold text-ember-700' : undefined}>{formatNumber(i.rowsRejected, 0)}</span>,
     },
     { id: 'duration', header: 'Duration', align: 'right', sortValue: (i) => i.durationMs, cell: (i) => (i.status === 'running' ? '…' : `${formatNumber(i.durationMs / 1000, 1)} s`) },
-    { id: 'actor', header: 'By', sortValue: (i) => i.actor, cell: (i) => <span className="whitespace-nowrap text-basin-700">{i.actor}</span> },
     {
       id: 'details',
       header: 'Details',

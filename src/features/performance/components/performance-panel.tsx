@@ -2,6 +2,7 @@ import { cleaningCautions } from '#shared/cautions.ts';
 import { Alert } from '../../../components/ui/alert.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
+import { NotesDetails } from '../../../components/ui/notes-details.tsx';
 import { ProvenanceDetails } from '../../../components/ui/provenance-details.tsx';
 import { SafetyNote } from '../../../components/ui/safety-note.tsx';
 import { formatDate } from '../../../lib/format.ts';
@@ -35,6 +36,7 @@ export function PerformancePanel({ params }: { params: PerformanceParams }) {
       {report.stages.map((stage) => (
         <StageCard key={stage.asset} stage={stage} />
       ))}
+      <NotesDetails notes={report.notes} />
       <ProvenanceDetails provenance={report.provenance} />
     </div>
   );

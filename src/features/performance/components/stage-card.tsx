@@ -10,37 +10,56 @@ import type { ChangePoint } from './performance-chart.tsx';
 const PerformanceChart = lazy(() => import('./performance-chart.tsx').then((m) => ({ default: m.PerformanceChart })));
 
 type Stage = PerformanceReport['stages'][number];
+type Normalized = Stage['points'][number]['normalized'];
 
-function Latest({ label, value, unit, change, alertAt }: { label: string; value: number | null; unit: string; change: number | null; alertAt: number }) {
-  const beyond = change !== null && (alertAt < 0 ? change <= alertAt : change >= alertAt);
+interface Quantity {
+  name: string;
+  unit: string;
+  color: string;
+  /** Signed alert threshold, %. */
+  threshold: number;
+  /** [% change from the baseline, normalized value] of one day. */
+  pick: (n: Normalized) => [number | null, number | null];
+}
+
+function quantities(t: Stage['settings']): Quantity[] {
+  return [
+    { name: 'Normalized permeate flow', unit: 'm³/h', color: seriesColors[0], threshold: -t.flowDropPct, pick: (n) => [n.permeateFlowChangePct, n.permeateFlowM3h] },
+    { name: 'Normalized salt passage', unit: '%', color: seriesColors[1], threshold: t.saltPassageRisePct, pick: (n) => [n.saltPassageChangePct, n.saltPassagePct] },
+    { name: 'Normalized differential pressure', unit: 'bar', color: seriesColors[2], threshold: t.dpRisePct, pick: (n) => [n.differentialPressureChangePct, n.differentialPressureBar] },
+  ];
+}
+
+/** One quantity: its latest change from the baseline (flagged beyond the threshold) over its chart. */
+function QuantityColumn({ q, stage }: { q: Quantity; stage: Stage }) {
+  const [change, value] = stage.latest ? q.pick(stage.latest.normalized) : [null, null];
+  const beyond = change !== null && (q.threshold < 0 ? change <= q.threshold : change >= q.threshold);
+  const points: ChangePoint[] = stage.points.map((p) => {
+    const [c, v] = q.pick(p.normalized);
+    return { time: new Date(p.state.time), change: c, value: v };
+  });
   return (
-    <div>
-      <dt className="text-sm text-basin-600">{label}</dt>
-      <dd className="mt-0.5 flex items-baseline gap-2">
+    <div className="min-w-0">
+      <h3 className="text-sm font-bold text-basin-800">{q.name}</h3>
+      <p className="mt-1 flex items-baseline gap-2">
         <span className="text-xl font-bold text-basin-950 tabular-nums">{formatChangePct(change)}</span>
-        {beyond && <Badge tone="fault">beyond {formatChangePct(alertAt, 0)}</Badge>}
-      </dd>
-      <dd className="text-xs text-basin-600 tabular-nums">
-        {formatNumber(value, 2)} {unit} normalized
-      </dd>
+        {beyond && <Badge tone="fault">beyond {formatChangePct(q.threshold, 0)}</Badge>}
+      </p>
+      <p className="text-xs text-basin-600 tabular-nums">
+        {formatNumber(value, 2)} {q.unit} on the latest day; alert at {formatChangePct(q.threshold, 0)}
+      </p>
+      {points.length > 0 && (
+        <ChartFrame label={`${q.name} of stage ${stage.asset}, % change from the baseline over ${points.length} days`} height={200}>
+          <PerformanceChart quantity={q.name} unit={q.unit} color={q.color} threshold={q.threshold} points={points} baseline={stage.baseline ? new Date(stage.baseline.time) : null} />
+        </ChartFrame>
+      )}
     </div>
   );
 }
 
-/** One stage: its latest normalized figures, the chart against the baseline, and what the baseline is. */
+/** One stage: normalized permeate flow, salt passage and ΔP against the baseline, latest day and history. */
 export function StageCard({ stage }: { stage: Stage }) {
   const t = stage.settings;
-  const latest = stage.latest?.normalized;
-  const series = (pick: (n: Stage['points'][number]['normalized']) => [number | null, number | null]): ChangePoint[] =>
-    stage.points.map((p) => {
-      const [change, value] = pick(p.normalized);
-      return { time: new Date(p.state.time), change, value };
-    });
-  const charts = [
-    { quantity: 'Normalized permeate flow', unit: 'm³/h', color: seriesColors[0], threshold: -t.flowDropPct, points: series((n) => [n.permeateFlowChangePct, n.permeateFlowM3h]) },
-    { quantity: 'Normalized salt passage', unit: '%', color: seriesColors[1], threshold: t.saltPassageRisePct, points: series((n) => [n.saltPassageChangePct, n.saltPassagePct]) },
-    { quantity: 'Normalized differential pressure', unit: 'bar', color: seriesColors[2], threshold: t.dpRisePct, points: series((n) => [n.differentialPressureChangePct, n.differentialPressureBar]) },
-  ];
   const baseline = stage.baseline;
   const baselineText = baseline
     ? baseline.reason === 'after-reset'
@@ -55,44 +74,29 @@ export function StageCard({ stage }: { stage: Stage }) {
         <>
           {stage.train && <>Train {stage.train}. </>}
           {baselineText}
+          {stage.latest && <> Latest day {formatDate(stage.latest.state.time)}.</>}
         </>
       }
       actions={stage.alerts.length > 0 ? <Badge tone="fault">{stage.alerts.length === 1 ? '1 alert' : `${stage.alerts.length} alerts`}</Badge> : <Badge tone="ok">no alert</Badge>}
     >
-      {latest && stage.latest && (
-        <>
-          <p className="mb-2 text-xs text-basin-600">Latest day {formatDate(stage.latest.state.time)}, change from the baseline:</p>
-          <dl className="mb-4 grid grid-cols-1 gap-x-6 gap-y-3 sm:grid-cols-3">
-            <Latest label="Normalized permeate flow" value={latest.permeateFlowM3h} unit="m³/h" change={latest.permeateFlowChangePct} alertAt={-t.flowDropPct} />
-            <Latest label="Normalized salt passage" value={latest.saltPassagePct} unit="%" change={latest.saltPassageChangePct} alertAt={t.saltPassageRisePct} />
-            <Latest label="Normalized differential pressure" value={latest.differentialPressureBar} unit="bar" change={latest.differentialPressureChangePct} alertAt={t.dpRisePct} />
-          </dl>
-        </>
-      )}
       {stage.points.length > 0 ? (
         <>
-          <div className="grid gap-4 lg:grid-cols-3">
-            {charts.map((c) => (
-              <div key={c.quantity} className="min-w-0">
-                <h3 className="text-sm font-bold text-basin-800">{c.quantity}</h3>
-                <p className="text-xs text-basin-600">% change from the baseline; alert at {formatChangePct(c.threshold, 0)}</p>
-                <ChartFrame label={`${c.quantity} of stage ${stage.asset}, % change from the baseline over ${c.points.length} days`} height={200}>
-                  <PerformanceChart {...c} baseline={baseline ? new Date(baseline.time) : null} />
-                </ChartFrame>
-              </div>
+          <div className="grid gap-6 lg:grid-cols-3">
+            {quantities(t).map((q) => (
+              <QuantityColumn key={q.name} q={q} stage={stage} />
             ))}
           </div>
-          <p className="mt-2 text-xs text-basin-600">
-            Daily means of the hours the train ran throughout, normalized to the baseline conditions (ASTM D4516; temperature correction U ={' '}
-            {formatNumber(t.uBelow25K, 0)} K below 25 °C, {formatNumber(t.uAtOrAbove25K, 0)} K above; {t.feedBrineAverage} feed-brine average). Days before
-            the baseline are shown against it but raise no alert.
+          <p className="mt-3 text-xs text-basin-600">
+            % change from the baseline of daily means over the hours the train ran throughout, normalized to the baseline conditions (ASTM D4516;
+            temperature correction U = {formatNumber(t.uBelow25K, 0)} K below 25 °C, {formatNumber(t.uAtOrAbove25K, 0)} K above; {t.feedBrineAverage}{' '}
+            feed-brine average). Days before the baseline are shown against it but raise no alert.
           </p>
         </>
       ) : (
         <p className="text-sm text-basin-600">No running day with every quantity measured in this window.</p>
       )}
       {stage.notes.length > 0 && (
-        <ul className="mt-3 list-disc space-y-0.5 pl-5 text-xs text-basin-600">
+        <ul className="mt-2 list-disc space-y-0.5 pl-5 text-xs text-basin-600">
           {stage.notes.map((n) => (
             <li key={n}>{n}</li>
           ))}

@@ -1,6 +1,7 @@
 import { lazy } from 'react';
 import { ChartFrame } from '../../../components/charts/chart-frame.tsx';
 import { Card } from '../../../components/ui/card.tsx';
+import { NotesDetails } from '../../../components/ui/notes-details.tsx';
 import { ProvenanceDetails } from '../../../components/ui/provenance-details.tsx';
 import { Select } from '../../../components/ui/select.tsx';
 import { formatDate, formatShare } from '../../../lib/format.ts';
@@ -78,6 +79,7 @@ export function ReliabilityPanel({ params }: { params: ReliabilityParams }) {
 
       {params.groupBy !== 'all' && <ReliabilityTable groups={groups} confidence={report.confidence} groupBy={params.groupBy} />}
 
+      <NotesDetails notes={report.notes} />
       <ProvenanceDetails provenance={report.provenance} />
     </div>
   );

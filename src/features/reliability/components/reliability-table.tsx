@@ -75,7 +75,7 @@ export function ReliabilityTable({ groups, confidence, groupBy }: { groups: read
       header: 'Operating time from',
       wrapHeader: true,
       sortValue: (g) => g.operatingTimeSource,
-      cell: (g) => <span className="whitespace-nowrap text-basin-700">{g.operatingTimeSource ? operatingTimeSourceLabels[g.operatingTimeSource] : '—'}</span>,
+      cell: (g) => <span className="text-basin-700">{g.operatingTimeSource ? operatingTimeSourceLabels[g.operatingTimeSource] : '—'}</span>,
     },
   ];
   return (

@@ -30,7 +30,10 @@ export function TimeToCompletePanel({ params }: { params: TimeToCompleteParams }
         <SafetyNote cautions={vesselWorkCautions} className="self-start" />
       </div>
 
-      <GroupsTable groups={report.groups} quantileMethod={report.quantileMethod} />
+      <div className="space-y-2">
+        <GroupsTable groups={report.groups} quantileMethod={report.quantileMethod} />
+        {report.procedureDefinition && <p className="text-xs text-basin-600">How jobs are named: {report.procedureDefinition}</p>}
+      </div>
 
       <Card
         title="Learning curve"

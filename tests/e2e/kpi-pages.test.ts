@@ -1,0 +1,422 @@
+// The KPI pages of the built client in a real browser, against the real API and a test database that
+// holds the invented demo plant (imported through the importers, then refreshed). Each page is opened
+// by a role that may read it; its key figures must match the API's answer, read nothing like NaN or
+// "undefined", and raise no console error. Every step leaves a screenshot in tests/e2e/screenshots/.
+import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import type { Server } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import request from 'supertest';
+import { build } from 'vite';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { ZodType, z } from 'zod';
+import { chemicalHandlingCaution, isolateAndDepressurizeCaution } from '#shared/cautions.ts';
+import type { Role } from '#shared/schemas/enums.ts';
+import { importHistorySchema } from '#shared/schemas/imports.ts';
+import { downtimeReportSchema, maintenanceMixReportSchema, performanceReportSchema } from '#shared/schemas/kpi-ops.ts';
+import { elementLifeReportSchema, forecastReportSchema, reliabilityReportSchema, timeToCompleteReportSchema } from '#shared/schemas/kpi.ts';
+import { settingsSchema } from '#shared/schemas/settings.ts';
+import { seedDemo } from '#server/demo/seed.ts';
+import { createTestApp, rolePasswords, type TestApp } from '../setup/app.ts';
+
+const root = fileURLToPath(new URL('../..', import.meta.url));
+const shotsDir = fileURLToPath(new URL('./screenshots', import.meta.url));
+
+let t: TestApp;
+let server: Server;
+let base: string;
+let browser: Browser;
+let dist: string;
+let demoDir: string;
+/** The demo plant's time zone: the browser reads dates as someone at the plant would. */
+let timeZone: string;
+
+beforeAll(async () => {
+  dist = mkdtempSync(join(tmpdir(), 'osmia-client-'));
+  // vitest runs with NODE_ENV=test; the client is built as in production (React's production build).
+  const nodeEnv = process.env.NODE_ENV;
+  process.env.NODE_ENV = 'production';
+  try {
+    await build({ root, configFile: join(root, 'vite.config.ts'), logLevel: 'warn', build: { outDir: dist, emptyOutDir: true } });
+  } finally {
+    process.env.NODE_ENV = nodeEnv;
+  }
+  t = await createTestApp({}, { clientDist: dist });
+  demoDir = mkdtempSync(join(tmpdir(), 'osmia-demo-e2e-'));
+  const seeded = await seedDemo(t.db, { outDir: demoDir, years: 1, stepMinutes: 60 });
+  timeZone = seeded.manifest.site.timeZone;
+  server = await new Promise<Server>((resolve, reject) => {
+    const s = t.app.listen(0, '127.0.0.1', () => resolve(s));
+    s.once('error', reject);
+  });
+  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  browser = await chromium.launch({
+    executablePath: '/usr/bin/chromium',
+    args: ['--headless=new', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+  });
+  mkdirSync(shotsDir, { recursive: true });
+});
+
+afterAll(async () => {
+  await browser?.close();
+  if (server) {
+    await new Promise<void>((resolve) => server.close(() => resolve()));
+    server.closeAllConnections();
+  }
+  await t?.close();
+  if (dist) rmSync(dist, { recursive: true, force: true });
+  if (demoDir) rmSync(demoDir, { recursive: true, force: true });
+});
+
+/** The API's answer to `path` for `role`, parsed with the shared schema: what the page must show. */
+async function api<S extends ZodType>(role: Role, path: string, schema: S): Promise<z.infer<S>> {
+  const res = await request(t.app).get(path).set('Cookie', t.cookies[role]);
+  expect(res.status, `${path} as ${role}`).toBe(200);
+  return schema.parse(res.body);
+}
+
+// Figures as the page writes them for an en-GB reader (src/lib/format.ts).
+const int = (n: number) => new Intl.NumberFormat('en-GB', { maximumFractionDigits: 0 }).format(n);
+const euros = (n: number) => new Intl.NumberFormat('en-GB', { style: 'currency', currency: 'EUR', maximumFractionDigits: 0, minimumFractionDigits: 0 }).format(n);
+
+interface Session {
+  context: BrowserContext;
+  page: Page;
+  problems: () => string[];
+}
+
+async function openSession(viewport = { width: 1280, height: 860 }): Promise<Session> {
+  const context = await browser.newContext({ viewport, locale: 'en-GB', timezoneId: timeZone });
+  const page = await context.newPage();
+  const problems: string[] = [];
+  page.on('pageerror', (err) => problems.push(`page error: ${err.message}`));
+  page.on('console', (msg) => {
+    if (msg.type() !== 'error') return;
+    const url = msg.location().url ?? '';
+    // Without a session the client asks GET /api/auth/me and is answered 401 before it redirects.
+    if (/status of 401/.test(msg.text()) && url.endsWith('/api/auth/me')) return;
+    problems.push(`console error: ${msg.text()} (${url})`);
+  });
+  return { context, page, problems: () => [...problems] };
+}
+
+async function closeSession(s: Session) {
+  const problems = s.problems();
+  await s.context.close();
+  expect(problems).toEqual([]);
+}
+
+async function signIn(s: Session, role: Role, path: string) {
+  await s.page.goto(`${base}${path}`);
+  await s.page.waitForURL((url) => url.pathname === '/sign-in');
+  await s.page.getByLabel('E-mail').fill(`${role}@test.example`);
+  await s.page.getByLabel('Password').fill(rolePasswords[role]);
+  await s.page.getByRole('button', { name: 'Sign in' }).click();
+  await s.page.waitForURL((url) => url.pathname === path.split('?')[0]);
+}
+
+async function heading(page: Page, name: string) {
+  await page.getByRole('heading', { level: 1, name, exact: true }).waitFor();
+}
+
+/** Waits until `count` charts have drawn (they load on demand) and no section still shows a spinner. */
+async function chartsDrawn(page: Page, count: number) {
+  await expect.poll(() => page.locator('figure [role="img"] svg').count(), { timeout: 20_000 }).toBeGreaterThanOrEqual(count);
+  await expect.poll(() => page.getByRole('status').filter({ hasText: /Loading/ }).count(), { timeout: 20_000 }).toBe(0);
+}
+
+/** The text of the page's main region, checked for what a broken figure would print. */
+async function mainText(page: Page): Promise<string> {
+  const text = await page.getByRole('main').innerText();
+  for (const bad of ['NaN', 'undefined', 'Infinity', '[object Object]', 'could not be shown', 'null']) {
+    expect(text, `the page shows "${bad}"`).not.toContain(bad);
+  }
+  return text;
+}
+
+async function shot(page: Page, name: string) {
+  await page.screenshot({ path: join(shotsDir, `${name}.png`), fullPage: true });
+}
+
+describe('the KPI pages with the demo plant', () => {
+  it('dashboard (admin): trains, maintenance mix, downtime, replacement forecast and performance alerts with the cleaning cautions', async () => {
+    const reliability = await api('admin', '/api/kpi/reliability?groupBy=asset', reliabilityReportSchema);
+    const forecast = await api('admin', '/api/kpi/forecast', forecastReportSchema);
+    const downtime = await api('admin', '/api/kpi/downtime', downtimeReportSchema);
+    const mix = await api('admin', '/api/kpi/maintenance-mix', maintenanceMixReportSchema);
+    const performance = await api('admin', '/api/kpi/performance', performanceReportSchema);
+
+    const s = await openSession();
+    await signIn(s, 'admin', '/');
+    await heading(s.page, 'Dashboard');
+    await s.page.getByRole('region', { name: 'Element replacements, next 12 months' }).waitFor();
+    const trains = s.page.getByRole('region', { name: 'Trains' });
+    await trains.waitFor();
+    // Trains are the top-level assets: each appears with its own MTBF.
+    const trainText = await trains.innerText();
+    for (const code of ['T1', 'T2']) {
+      const group = reliability.groups!.find((g) => g.asset === code)!;
+      expect(trainText).toContain(code);
+      expect(trainText).toContain(`${int(group.mtbfHours!)} h`);
+    }
+    const forecastCard = await s.page.getByRole('region', { name: 'Element replacements, next 12 months' }).innerText();
+    expect(forecastCard).toContain(int(forecast.groups[0].total.expectedCount));
+    expect(forecastCard).toContain(euros(forecast.groups[0].total.expectedCost));
+    const downtimeCard = await s.page.getByRole('region', { name: 'Downtime' }).innerText();
+    expect(downtimeCard).toContain(`${int(downtime.events.length)} stops`);
+    const top = [...downtime.totals].sort((a, b) => b.hours - a.hours)[0];
+    expect(downtimeCard).toContain(euros(top.cost!));
+    const mixCard = await s.page.getByRole('region', { name: 'Maintenance mix' }).innerText();
+    expect(mixCard).toContain(`${int(mix.pmCompliance.compliance! * 100)} %`);
+    expect(mixCard).toContain(`${mix.pmCompliance.completedInWindow} of ${mix.pmCompliance.due} preventive orders done`);
+
+    const alerts = performance.stages.flatMap((st) => st.alerts);
+    const alertCard = s.page.getByRole('region', { name: 'Membrane performance alerts' });
+    if (alerts.length > 0) {
+      await alertCard.getByRole('complementary', { name: 'Safety before any work on the plant' }).waitFor();
+      expect(await alertCard.innerText()).toContain(chemicalHandlingCaution);
+    } else {
+      await alertCard.getByText('No stage is beyond an alert threshold.').waitFor();
+    }
+    await s.page.getByText('All systems running').waitFor();
+    await mainText(s.page);
+    await shot(s.page, 'kpi-dashboard-admin');
+    await closeSession(s);
+  });
+
+  it('dashboard (finance): only what the role may read, with costs in the plant’s currency', async () => {
+    const settings = await api('finance', '/api/settings', settingsSchema);
+    expect(settings.currency).toBe('EUR');
+    const s = await openSession();
+    await signIn(s, 'finance', '/');
+    await heading(s.page, 'Dashboard');
+    await s.page.getByRole('region', { name: 'Element replacements, next 12 months' }).waitFor();
+    await s.page.getByRole('region', { name: 'Downtime' }).waitFor();
+    await s.page.getByRole('region', { name: 'Maintenance mix' }).waitFor();
+    // Finance may not read reliability or performance: those sections are not there, and nothing was refused.
+    expect(await s.page.getByRole('region', { name: 'Trains' }).count()).toBe(0);
+    expect(await s.page.getByRole('region', { name: 'Membrane performance alerts' }).count()).toBe(0);
+    const text = await mainText(s.page);
+    expect(text).toMatch(/€\d/);
+    await shot(s.page, 'kpi-dashboard-finance');
+    await closeSession(s);
+  });
+
+  it('reliability (engineer): per-asset table with bounds, MTBF chart, provenance, and a window kept in the address', async () => {
+    const report = await api('engineer', '/api/kpi/reliability?groupBy=asset', reliabilityReportSchema);
+    const s = await openSession();
+    await signIn(s, 'engineer', '/reliability');
+    await heading(s.page, 'Reliability');
+    await chartsDrawn(s.page, 1);
+    const table = s.page.getByRole('table');
+    await expect.poll(() => table.getByRole('row').count()).toBe(report.groups!.length + 1);
+    const t1 = report.groups!.find((g) => g.asset === 'T1')!;
+    const row = await table.getByRole('row').filter({ has: s.page.getByText('T1', { exact: true }) }).innerText();
+    expect(row).toContain(`${int(t1.mtbfHours!)} h`);
+    expect(row).toContain(`${int(t1.mtbfLowerHours!)} – ${int(t1.mtbfUpperHours!)} h`);
+    expect(row).toContain('own run status');
+    const text = await mainText(s.page);
+    expect(text).toContain(`${int(report.failures)}`);
+    await s.page.getByText(/^Computed from \d+ work orders/).click();
+    await s.page.getByText(report.provenance!.workOrders[0], { exact: true }).first().waitFor();
+    await shot(s.page, 'reliability-engineer');
+
+    // A window set in the filter bar lands in the address and is read back from it.
+    await s.page.getByLabel('From').fill('2026-01-01');
+    await s.page.getByLabel('Until').fill('2026-07-01');
+    await s.page.getByRole('button', { name: 'Apply' }).click();
+    await s.page.waitForURL((url) => url.searchParams.get('from') === '2026-01-01' && url.searchParams.get('to') === '2026-07-01');
+    await s.page.getByText('1 Jan 2026 – 1 Jul 2026').waitFor();
+    const windowed = await api('engineer', '/api/kpi/reliability?groupBy=asset&from=2026-01-01&to=2026-07-01', reliabilityReportSchema);
+    await s.page.getByRole('region', { name: 'Reliability of the site' }).getByText(`${int(windowed.operatingHours)} h`, { exact: true }).waitFor();
+    await s.page.reload();
+    await heading(s.page, 'Reliability');
+    expect(await s.page.getByLabel('From').inputValue()).toBe('2026-01-01');
+    // An empty window is refused before it is asked for.
+    await s.page.getByLabel('From').fill('2026-08-01');
+    await s.page.getByRole('button', { name: 'Apply' }).click();
+    await s.page.getByText('“From” must be before “Until”', { exact: false }).waitFor();
+    await mainText(s.page);
+    await shot(s.page, 'reliability-engineer-window');
+    await closeSession(s);
+  });
+
+  it('reliability is refused to finance with the role panel, not a blank page', async () => {
+    const s = await openSession();
+    await signIn(s, 'finance', '/reliability');
+    await s.page.getByRole('heading', { name: 'Your role does not allow this page' }).waitFor();
+    await shot(s.page, 'reliability-refused-finance');
+    await closeSession(s);
+  });
+
+  it('element life & forecast (finance): survival curves, Weibull table, forecast with its band and the vessel-work cautions', async () => {
+    const life = await api('finance', '/api/kpi/element-life', elementLifeReportSchema);
+    const forecast = await api('finance', '/api/kpi/forecast', forecastReportSchema);
+    const s = await openSession();
+    await signIn(s, 'finance', '/element-life');
+    await heading(s.page, 'Element life & forecast');
+    await chartsDrawn(s.page, 2);
+    const forecastCard = s.page.getByRole('region', { name: 'Replacement forecast, next 12 months' });
+    const forecastText = await forecastCard.innerText();
+    expect(forecastText).toContain(euros(forecast.groups[0].total.expectedCost));
+    expect(forecastText).toContain(`90 % band ${euros(forecast.groups[0].total.costLower!)} – ${euros(forecast.groups[0].total.costUpper!)}`);
+    expect(forecastText).toContain(isolateAndDepressurizeCaution);
+    // Vessel work uses no cleaning chemicals: that caution is not among these.
+    expect(forecastText).not.toContain(chemicalHandlingCaution);
+    const weibull = s.page.getByRole('table', { name: /Weibull fit/ });
+    const all = await weibull.getByRole('row').filter({ hasText: 'All elements' }).innerText();
+    expect(all).toContain(int(life.groups[0].n));
+    expect(all).toContain(`${int(life.groups[0].b10Days!)} d`);
+    await mainText(s.page);
+    await shot(s.page, 'element-life-finance');
+
+    await s.page.getByLabel('Group by').selectOption('stage');
+    await s.page.waitForURL((url) => url.searchParams.get('groupBy') === 'stage');
+    const byStage = await api('finance', '/api/kpi/element-life?groupBy=stage', elementLifeReportSchema);
+    await expect.poll(() => weibull.getByRole('row').count()).toBe(byStage.groups.length + 1);
+    await chartsDrawn(s.page, 2);
+    await s.page.getByRole('table', { name: 'Forecast by group' }).waitFor();
+    await mainText(s.page);
+    await shot(s.page, 'element-life-by-stage');
+    await closeSession(s);
+  });
+
+  it('time to complete (manager): groups with the quantile method, guided vs unguided, learning curve, jobs and the vessel-work cautions', async () => {
+    const report = await api('manager', '/api/kpi/time-to-complete', timeToCompleteReportSchema);
+    const s = await openSession();
+    await signIn(s, 'manager', '/time-to-complete');
+    await heading(s.page, 'Jobs / time to complete');
+    await chartsDrawn(s.page, 1);
+    const text = await mainText(s.page);
+    expect(text).toContain(report.quantileMethod);
+    expect(text).toContain(`${report.jobs.length} jobs`);
+    expect(text).toContain(isolateAndDepressurizeCaution);
+    const guided = report.groups.find((g) => g.key === 'guided=yes')!;
+    const comparison = await s.page.getByRole('region', { name: 'Guided vs unguided' }).innerText();
+    expect(comparison).toContain(`${guided.n} and`);
+    await s.page.getByRole('button', { name: 'Show all' }).click();
+    await expect.poll(() => s.page.getByRole('table', { name: /jobs, each from/ }).getByRole('row').count()).toBe(report.jobs.length + 1);
+    await s.page.getByLabel('Buckets').selectOption('bySequence');
+    await chartsDrawn(s.page, 1);
+    await shot(s.page, 'time-to-complete-manager');
+    await closeSession(s);
+  });
+
+  it('downtime (finance): Pareto charts, totals with cost, and the stops', async () => {
+    const report = await api('finance', '/api/kpi/downtime', downtimeReportSchema);
+    const s = await openSession();
+    await signIn(s, 'finance', '/downtime');
+    await heading(s.page, 'Downtime');
+    await chartsDrawn(s.page, 2);
+    const text = await mainText(s.page);
+    expect(text).toContain(`${int(report.events.length)} stops`);
+    const totals = s.page.getByRole('table', { name: 'Down time by asset' });
+    await expect.poll(() => totals.getByRole('row').count()).toBe(report.totals.length + 1);
+    const first = report.totals[0];
+    const row = await totals.getByRole('row').filter({ has: s.page.getByText(first.asset, { exact: true }) }).innerText();
+    expect(row).toContain(`${int(first.lostVolumeM3!)} m³`);
+    expect(row).toContain(euros(first.cost!));
+    await shot(s.page, 'downtime-finance');
+    await closeSession(s);
+  });
+
+  it('membrane performance (engineer): every stage against its baseline, thresholds drawn, alerts with the cleaning cautions', async () => {
+    const report = await api('engineer', '/api/kpi/performance', performanceReportSchema);
+    const s = await openSession();
+    await signIn(s, 'engineer', '/performance');
+    await heading(s.page, 'Membrane performance');
+    // Three charts per stage: permeate flow, salt passage, differential pressure.
+    await chartsDrawn(s.page, report.stages.length * 3);
+    for (const stage of report.stages) {
+      const card = await s.page.getByRole('region', { name: `Stage ${stage.asset}` }).innerText();
+      expect(card).toContain('Baseline');
+      expect(card).toContain('alert at −10 %');
+    }
+    const alerts = report.stages.flatMap((st) => st.alerts);
+    const text = await mainText(s.page);
+    if (alerts.length > 0) {
+      expect(text).toContain(alerts[0].message);
+      expect(text).toContain(chemicalHandlingCaution);
+    }
+    await shot(s.page, 'performance-engineer');
+    await closeSession(s);
+  });
+
+  it('imports (engineer): a dry run keeps nothing; an upload lands in the history with its rejects and their CSV', async () => {
+    const before = await api('engineer', '/api/imports', importHistorySchema);
+    // Two work orders: the first is valid, the second has a type Osmia does not know (line 3).
+    const csv = [
+      'wo_number,asset,type,priority,status,failure_code,description,reported_at,started_at,completed_at,out_of_service_from,out_of_service_to,labour_hours,labour_cost,parts_cost,crew',
+      'WO-E2E-1,T1-HPP,corrective,high,closed,SEAL-LEAK,Seal leak on the high-pressure pump,2026-09-20T08:00:00Z,2026-09-20T09:00:00Z,2026-09-20T12:00:00Z,2026-09-20T09:00:00Z,2026-09-20T12:00:00Z,3,240,180,crew-a',
+      'WO-E2E-2,T1-HPP,repair,high,closed,SEAL-LEAK,Same leak again,2026-09-21T08:00:00Z,,,,,,,,crew-a',
+    ].join('\n');
+    const file = { name: 'e2e-work-orders.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) };
+
+    const s = await openSession();
+    await signIn(s, 'engineer', '/imports');
+    await heading(s.page, 'Imports');
+    const history = s.page.getByRole('table', { name: /Import history/ });
+    await expect.poll(() => history.getByRole('row').count()).toBe(before.imports.length + 1);
+    await shot(s.page, 'imports-engineer');
+
+    const form = s.page.getByRole('region', { name: 'Import a file' });
+    await form.getByLabel('Kind of file').selectOption('work-orders');
+    await form.getByLabel('File', { exact: true }).setInputFiles(file);
+    await form.getByLabel('Dry run').check();
+    await form.getByRole('button', { name: 'Check the file' }).click();
+    const dry = s.page.getByRole('region', { name: 'Dry run result' });
+    await dry.waitFor();
+    expect(await dry.innerText()).toContain('A dry run: nothing was kept');
+    expect((await api('engineer', '/api/imports', importHistorySchema)).imports).toHaveLength(before.imports.length);
+
+    await form.getByLabel('File', { exact: true }).setInputFiles(file);
+    await form.getByLabel('Dry run').uncheck();
+    await form.getByRole('button', { name: 'Import', exact: true }).click();
+    const result = s.page.getByRole('region', { name: 'Import result' });
+    await result.waitFor();
+    const resultText = await result.innerText();
+    expect(resultText).toContain('partial');
+    expect(resultText).toContain('e2e-work-orders.csv');
+    const rejects = result.getByRole('table', { name: /rejected row/ });
+    const line3 = await rejects.getByRole('row').filter({ has: s.page.getByRole('cell', { name: '3', exact: true }) }).innerText();
+    expect(line3.length).toBeGreaterThan(2);
+
+    // The history shows the new import, newest first.
+    await expect.poll(() => history.getByRole('row').count()).toBe(before.imports.length + 2);
+    expect(await history.getByRole('row').nth(1).innerText()).toContain('e2e-work-orders.csv');
+    const after = await api('engineer', '/api/imports', importHistorySchema);
+    const record = after.imports.find((i) => i.file === 'e2e-work-orders.csv')!;
+    expect(record).toMatchObject({ status: 'partial', rowsInserted: 1, rowsRejected: 1 });
+
+    // Its details, and the CSV of all its rejects behind the link.
+    await s.page.getByRole('button', { name: `Details of import ${record.id} (e2e-work-orders.csv)` }).click();
+    const detail = s.page.getByRole('region', { name: `Import ${record.id}`, exact: true });
+    await detail.getByRole('table', { name: /rejected row/ }).waitFor();
+    const href = await detail.getByRole('link', { name: 'Download all rejects (CSV)' }).getAttribute('href');
+    expect(href).toBe(`/api/imports/${record.id}/rejects.csv`);
+    const download = await s.page.request.get(`${base}${href}`);
+    expect(download.status()).toBe(200);
+    const lines = (await download.text()).trim().split(/\r?\n/);
+    expect(lines[0]).toBe('line,reason,row');
+    expect(lines[1]).toMatch(/^3,/);
+    await mainText(s.page);
+    await shot(s.page, 'imports-result');
+    await closeSession(s);
+  });
+
+  it('fits a phone-sized screen', async () => {
+    const s = await openSession({ width: 390, height: 844 });
+    await signIn(s, 'manager', '/');
+    await heading(s.page, 'Dashboard');
+    await s.page.getByRole('region', { name: 'Element replacements, next 12 months' }).waitFor();
+    await s.page.getByRole('region', { name: 'Trains' }).waitFor();
+    const overflow = await s.page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
+    expect(overflow).toBe(0);
+    await mainText(s.page);
+    await shot(s.page, 'kpi-dashboard-phone');
+    await closeSession(s);
+  });
+});
