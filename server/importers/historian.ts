@@ -20,8 +20,12 @@ import { readBoolean, readQuality } from './values.ts';
 
 interface TagInfo {
   id: number;
+  /** `id\t`: the start of each COPY line of this tag. */
+  prefix: string;
   name: string;
   isStatus: boolean;
+  /** The export's unit is the canonical one: the value's text goes to PostgreSQL as written. */
+  identity: boolean;
   convert: (v: number) => number;
   /** This file's span of the tag, filled while reading. */
   span?: Span;
@@ -85,7 +89,8 @@ export async function importHistorian(ctx: KindContext): Promise<KindResult> {
   for (const t of await listTags(client, site.id)) {
     const unit = unitFor(t.quantity, t.sourceUnit);
     if (!unit.ok) throw new ImportFileError(`Tag ${t.name} has an unusable unit: ${unit.reason}`);
-    tags.set(t.name.toLowerCase(), { id: t.id, name: t.name, isStatus: t.quantity === 'run_status', convert: unit.convert });
+    const identity = unit.convert(1) === 1 && unit.convert(0) === 0;
+    tags.set(t.name.toLowerCase(), { id: t.id, prefix: `${t.id}\t`, name: t.name, isStatus: t.quantity === 'run_status', identity, convert: unit.convert });
   }
   if (tags.size === 0) throw new ImportFileError(`Site ${site.code} has no tags: import the tag map first (osmia import tags …).`);
 
@@ -121,6 +126,7 @@ export async function importHistorian(ctx: KindContext): Promise<KindResult> {
   let lastInstant: number | undefined;
   let lastQualityText = 'good';
   let lastQuality = 192;
+  let lastQualityOut = '192';
   let badQualities = 0;
 
   const readTime = (text: string): string | undefined => {
@@ -135,19 +141,34 @@ export async function importHistorian(ctx: KindContext): Promise<KindResult> {
     return lastTimeOut;
   };
 
-  const readValue = (tag: TagInfo, text: string): number | string => {
+  // The value as COPY text, or undefined with the reason in `rejectReason` (no object per row: this
+  // runs for every sample). Number() is the parser; the pattern only screens the radix prefixes
+  // (0x…, 0b…, 0o…) Number() accepts and a historian value never means.
+  let rejectReason = '';
+  const valueText = (tag: TagInfo, raw: string): string | undefined => {
     if (tag.isStatus) {
-      const b = readBoolean(text);
-      return b.ok ? (b.value ? 1 : 0) : `run status ${b.reason}`;
+      const b = readBoolean(raw);
+      if (b.ok) return b.value ? '1' : '0';
+      rejectReason = `run status ${b.reason}`;
+      return undefined;
     }
-    let s = text.trim();
+    let s = raw.trim();
     if (decimalComma) s = s.replace(',', '.');
-    if (!numberPattern.test(s)) return s === '' ? 'empty value' : `value "${text}" is not a number`;
-    return tag.convert(Number(s));
+    if (s.length === 0) {
+      rejectReason = 'empty value';
+      return undefined;
+    }
+    const v = Number(s);
+    const c1 = s.length > 1 ? s.charCodeAt(1) | 0x20 : 0;
+    if (!Number.isFinite(v) || ((c1 === 0x78 || c1 === 0x62 || c1 === 0x6f) && !numberPattern.test(s))) {
+      rejectReason = `value "${raw}" is not a number`;
+      return undefined;
+    }
+    return tag.identity ? s : String(tag.convert(v));
   };
 
-  const record = (tag: TagInfo, ts: string, value: number, quality: number) => {
-    writer.push(`${tag.id}\t${ts}\t${value}\t${quality}\n`);
+  const record = (tag: TagInfo, ts: string, value: string, quality: string) => {
+    writer.push(tag.prefix + ts + '\t' + value + '\t' + quality + '\n');
     samples++;
     let span = tag.span;
     if (!span) {
@@ -189,9 +210,9 @@ export async function importHistorian(ctx: KindContext): Promise<KindResult> {
             rejects.add(line, `unknown tag "${cells[iTag]}" (not in the tag map of site ${site.code})`, cells);
             continue;
           }
-          const value = readValue(tag, cells[iValue] ?? '');
-          if (typeof value === 'string') {
-            rejects.add(line, value, cells);
+          const value = valueText(tag, cells[iValue] ?? '');
+          if (value === undefined) {
+            rejects.add(line, rejectReason, cells);
             continue;
           }
           let quality = lastQuality;
@@ -203,28 +224,29 @@ export async function importHistorian(ctx: KindContext): Promise<KindResult> {
             }
             lastQualityText = cells[iQuality];
             lastQuality = quality = q.value;
+            lastQualityOut = String(q.value);
           }
           if ((quality & 0xc0) !== 0xc0) badQualities++;
-          record(tag, ts, value, quality);
+          record(tag, ts, value, lastQualityOut);
         } else {
           if (cells.length !== columns.length) {
             rejects.add(line, `expected ${columns.length} columns, found ${cells.length}`, cells);
             continue;
           }
           const problems: string[] = [];
-          const good: [TagInfo, number][] = [];
+          const good: [TagInfo, string][] = [];
           for (let i = 1; i < cells.length; i++) {
             if (cells[i].trim() === '') continue; // no sample of this tag at this time
             const tag = wideTags[i]!;
-            const value = readValue(tag, cells[i]);
-            if (typeof value === 'string') problems.push(`${tag.name}: ${value}`);
+            const value = valueText(tag, cells[i]);
+            if (value === undefined) problems.push(`${tag.name}: ${rejectReason}`);
             else good.push([tag, value]);
           }
           if (problems.length > 0) {
             rejects.add(line, problems.join('; '), cells);
             continue;
           }
-          for (const [tag, value] of good) record(tag, ts, value, 192);
+          for (const [tag, value] of good) record(tag, ts, value, '192');
         }
       }
       ctx.progress(rowsRead);

@@ -299,7 +299,7 @@ describe('the KPI pages with the demo plant', () => {
     expect(comparison).toContain(`${guided.n} and`);
     await s.page.getByRole('button', { name: 'Show all' }).click();
     await expect.poll(() => s.page.getByRole('table', { name: /jobs, each from/ }).getByRole('row').count()).toBe(report.jobs.length + 1);
-    await s.page.getByLabel('Buckets').selectOption('bySequence');
+    await s.page.getByLabel('Buckets', { exact: true }).selectOption('bySequence');
     await chartsDrawn(s.page, 1);
     await shot(s.page, 'time-to-complete-manager');
     await closeSession(s);

@@ -10,7 +10,8 @@ import type { ChangePoint } from './performance-chart.tsx';
 const PerformanceChart = lazy(() => import('./performance-chart.tsx').then((m) => ({ default: m.PerformanceChart })));
 
 type Stage = PerformanceReport['stages'][number];
-type Normalized = Stage['points'][number]['normalized'];
+// A daily point of the series (summary figures) or the latest day (every figure): the three changes and values are in both.
+type Normalized = Stage['points'][number]['normalized'] | NonNullable<Stage['latest']>['normalized'];
 
 interface Quantity {
   name: string;
@@ -24,9 +25,9 @@ interface Quantity {
 
 function quantities(t: Stage['settings']): Quantity[] {
   return [
-    { name: 'Normalized permeate flow', unit: 'm³/h', color: seriesColors[0], threshold: -t.flowDropPct, pick: (n) => [n.permeateFlowChangePct, n.permeateFlowM3h] },
-    { name: 'Normalized salt passage', unit: '%', color: seriesColors[1], threshold: t.saltPassageRisePct, pick: (n) => [n.saltPassageChangePct, n.saltPassagePct] },
-    { name: 'Normalized differential pressure', unit: 'bar', color: seriesColors[2], threshold: t.dpRisePct, pick: (n) => [n.differentialPressureChangePct, n.differentialPressureBar] },
+    { name: 'Normalized permeate flow', unit: 'm³/h', color: seriesColors[0], threshold: -t.flowDropPct, pick: (n) => [n.permeateFlowChangePct ?? null, n.permeateFlowM3h ?? null] },
+    { name: 'Normalized salt passage', unit: '%', color: seriesColors[1], threshold: t.saltPassageRisePct, pick: (n) => [n.saltPassageChangePct ?? null, n.saltPassagePct ?? null] },
+    { name: 'Normalized differential pressure', unit: 'bar', color: seriesColors[2], threshold: t.dpRisePct, pick: (n) => [n.differentialPressureChangePct ?? null, n.differentialPressureBar ?? null] },
   ];
 }
 
