@@ -1,6 +1,6 @@
 import type { Command } from 'commander';
 import { HttpError } from '#server/errors.ts';
-import { kpiCatalog } from '#server/services/kpi-catalog.ts';
+import { kpiCatalog, withPlantDefaults } from '#server/services/kpi-catalog.ts';
 import { formatJson, stdio } from '../output.ts';
 import { action, CliError } from '../run.ts';
 import { withDb } from './db.ts';
@@ -39,15 +39,19 @@ export function registerKpi(program: Command) {
       .option('--from <date>', 'window start, ISO date or date-time (a bare date is midnight in the site’s zone)')
       .option('--to <date>', 'window end (exclusive)')
       .option('--group-by <group>', 'grouping, where the KPI has one (element-life, forecast: all|train|stage|position|model)')
-      .option('--confidence <c>', 'confidence level of intervals, 0–1', '0.9')
+      .option('--confidence <c>', 'confidence level of intervals, 0–1 (default: the plant setting, 0.9)')
       .option('--json', 'print the JSON object the API serves')
       .action(
         action(async (flags: KpiFlags) => {
           const input = Object.fromEntries(Object.entries({ ...flags, json: undefined }).filter(([, v]) => v !== undefined));
-          const parsed = k.query.safeParse(input);
-          if (!parsed.success) throw new CliError(parsed.error.issues.map((i) => `--${String(i.path[0] ?? '')}: ${i.message}`).join('; '), 2);
+          const usage = (issues: { path: PropertyKey[]; message: string }[]) =>
+            new CliError(issues.map((i) => `--${String(i.path[0] ?? '')}: ${i.message}`).join('; '), 2);
+          const checked = k.query.safeParse(input);
+          if (!checked.success) throw usage(checked.error.issues);
           const [run, format] = await Promise.all([k.load(), formatters[k.name]()]);
           await withDb(async (db) => {
+            const parsed = k.query.safeParse(await withPlantDefaults(db, input));
+            if (!parsed.success) throw usage(parsed.error.issues);
             const report = await run(db, parsed.data as never).catch((err: unknown) => {
               throw err instanceof HttpError ? new CliError(err.message) : err;
             });

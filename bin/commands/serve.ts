@@ -2,10 +2,10 @@ import { spawnSync } from 'node:child_process';
 import { join } from 'node:path';
 import type { Command } from 'commander';
 import { closeDb, createDb } from '#server/db/client.ts';
-import { clusterStatus, stopCluster } from '#server/db/cluster.ts';
+import { clusterStatus, projectClusterDir, stopCluster } from '#server/db/cluster.ts';
 import { migrateDb } from '#server/db/migrate.ts';
 import { demoUsers, seedDemoUsers } from '#server/demo/users.ts';
-import { projectRoot, resolveDatabase, serverEnv } from '../config.ts';
+import { databaseUrlFromEnv, projectRoot, resolveDatabase, serverEnv } from '../config.ts';
 import { stdio } from '../output.ts';
 import { action, CliError } from '../run.ts';
 import { seedDemoPlantIfEmpty } from './seed.ts';
@@ -28,7 +28,7 @@ export function registerServe(program: Command) {
     .option('--first-run', 'build the client and, on an empty database, add the demo users and the demo plant (npm start)')
     .action(
       action(async (opts: { port?: string; host?: string; firstRun?: boolean }) => {
-        const wasRunning = await clusterStatus(join(projectRoot, '.osmia', 'pg')).then((s) => s.running);
+        const wasRunning = databaseUrlFromEnv() ? true : await clusterStatus(projectClusterDir(projectRoot)).then((s) => s.running);
         const target = await resolveDatabase((l) => stdio.err(l));
         const env = serverEnv(target.url, { ...(opts.port ? { PORT: opts.port } : {}), ...(opts.host ? { HOST: opts.host } : {}) });
         const db = createDb(target.url, { max: 2 });

@@ -1,6 +1,6 @@
 import type { Request, Response } from 'express';
 import type { AppDeps } from '../deps.ts';
-import { kpiCatalog } from '../services/kpi-catalog.ts';
+import { kpiCatalog, withPlantDefaults } from '../services/kpi-catalog.ts';
 import { KpiCache, type CachedBody } from '../services/kpi-cache.ts';
 import type { RouteRegistry } from './registry.ts';
 
@@ -19,7 +19,7 @@ export function kpiRoutes(r: RouteRegistry, { db }: AppDeps) {
   const cache = new KpiCache();
   for (const kpi of kpiCatalog) {
     r.get(`/api/kpi/${kpi.name}`, { access: kpi.access, summary: kpi.summary, query: kpi.query, response: kpi.response }, async (req, res) => {
-      const query = kpi.query.parse(req.query) as object;
+      const query = kpi.query.parse(await withPlantDefaults(db, { ...req.query })) as object;
       const run = await kpi.load();
       sendCached(req, res, await cache.get(db, kpi.name, query, () => run(db, query as never)));
     });

@@ -235,7 +235,7 @@ export function elementLifeGroup(key: string, lives: readonly ElementLifeObserva
  * `provenanceSerialCap`, `elementCount` gives the full number) and the window used.
  */
 export async function getElementLife(db: Db, query: ElementLifeQuery): Promise<ElementLifeReport> {
-  const scope = await resolveScope(db, query);
+  const scope = await resolveScope(db, query, ['elements']);
   const places = vesselPlaces(scope);
   const installs = scope.to === null ? [] : await listElementInstalls(db.$client, scope.site.id, [...places.keys()], scope.to);
   const lives = scope.to === null ? [] : observeLives(installs, places, query.groupBy, scope.from, scope.to);

@@ -97,7 +97,7 @@ function fitOf(lives: readonly ElementLifeObservation[], confidence: number): { 
  * month by month. Every answer carries the vessel-work cautions: a replacement opens pressure vessels.
  */
 export async function getForecast(db: Db, query: ForecastQuery): Promise<ForecastAnswer> {
-  const scope = await resolveScope(db, query);
+  const scope = await resolveScope(db, query, ['elements']);
   const settings = await getSettings(db);
   // The service may read the clock; only shared/ may not. Without any data there is no other start.
   const asOf = scope.to ?? new Date();

@@ -3,6 +3,7 @@ import type { Db } from '../db/client.ts';
 import { getImport, listImports, streamRejects, sweepInterruptedImports } from '../db/queries/imports.ts';
 import { notFound } from '../errors.ts';
 import { runImport, type ImportOptions } from '../importers/run.ts';
+import { refresh } from '../jobs/refresh.ts';
 
 export interface ImportProgress {
   bytesRead: number;
@@ -13,10 +14,14 @@ export interface ImportProgress {
 /** Progress of the imports this process is running, by import id (the record says 'running'). */
 const running = new Map<number, ImportProgress>();
 
-export async function importFile(db: Db, opts: ImportOptions): Promise<ImportRecord> {
+/**
+ * Import one file; with `refreshAfterwards`, new historian samples are rolled up at once (the upload
+ * page shows them right away; cron runs `osmia refresh` after its imports instead).
+ */
+export async function importFile(db: Db, opts: ImportOptions & { refreshAfterwards?: boolean }): Promise<ImportRecord> {
   let id: number | undefined;
   try {
-    return await runImport(db, {
+    const record = await runImport(db, {
       ...opts,
       onStart: (importId) => {
         id = importId;
@@ -27,6 +32,8 @@ export async function importFile(db: Db, opts: ImportOptions): Promise<ImportRec
         opts.onProgress?.(p);
       },
     });
+    if (opts.refreshAfterwards && record.kind === 'historian' && record.rowsInserted > 0 && !record.dryRun) await refresh(db);
+    return record;
   } finally {
     if (id !== undefined) running.delete(id);
   }

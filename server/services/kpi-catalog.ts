@@ -21,6 +21,7 @@ import {
   performanceReportSchema,
 } from '#shared/schemas/kpi-ops.ts';
 import type { Db } from '../db/client.ts';
+import { getSettings } from './settings.ts';
 
 export type KpiService = (db: Db, query: never) => Promise<unknown>;
 
@@ -94,3 +95,9 @@ export const kpiCatalog: KpiEntry[] = [
     load: async () => (await import('./maintenance-mix.ts')).getMaintenanceMix,
   },
 ];
+
+/** The plant's confidence setting stands in for a query that names none (the schemas' own default is 0.9). */
+export async function withPlantDefaults(db: Db, raw: Record<string, unknown>): Promise<Record<string, unknown>> {
+  if (raw.confidence !== undefined && raw.confidence !== '') return raw;
+  return { ...raw, confidence: (await getSettings(db)).confidence };
+}

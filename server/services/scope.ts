@@ -47,14 +47,22 @@ export function resolveBound(text: string, timeZone: string): Date {
   return new Date(r.value);
 }
 
-/** The extent of a site's data: samples, work orders and element installs. */
-async function dataExtent(db: Db, siteId: number): Promise<{ from: Date | null; to: Date | null }> {
+/** What a KPI is computed from, for its default window: the whole range of that data. */
+export type DataSource = 'samples' | 'work-orders' | 'elements';
+
+const extentSql: Record<DataSource, string> = {
+  samples: `select min(c.from_ts) f, max(c.to_ts) + interval '1 second' t from sample_coverage c join tags g on g.id = c.tag_id where g.site_id = $1`,
+  'work-orders': `select min(reported_at), max(greatest(reported_at, completed_at, out_of_service_to)) + interval '1 second' from work_orders where site_id = $1`,
+  elements: `select min(installed_at), max(greatest(installed_at, removed_at)) + interval '1 second' from elements where site_id = $1`,
+};
+
+/**
+ * The extent of a site's data of the given kinds. A KPI of the historian and work orders defaults to
+ * their range, not to an element register that may go back to commissioning.
+ */
+async function dataExtent(db: Db, siteId: number, sources: readonly DataSource[]): Promise<{ from: Date | null; to: Date | null }> {
   const { rows } = await db.$client.query<{ from: Date | null; to: Date | null }>(
-    `select min(f) as "from", max(t) as "to" from (
-       select min(c.from_ts) f, max(c.to_ts) + interval '1 second' t from sample_coverage c join tags g on g.id = c.tag_id where g.site_id = $1
-       union all select min(reported_at), max(greatest(reported_at, completed_at, out_of_service_to)) + interval '1 second' from work_orders where site_id = $1
-       union all select min(installed_at), max(greatest(installed_at, removed_at)) + interval '1 second' from elements where site_id = $1
-     ) x`,
+    `select min(f) as "from", max(t) as "to" from (${sources.map((s) => extentSql[s]).join(' union all ')}) x(f, t)`,
     [siteId],
   );
   return rows[0] ?? { from: null, to: null };
@@ -72,7 +80,11 @@ export async function resolveSiteOnly(db: Db, code: string | undefined): Promise
   throw new HttpError(400, 'site-required', `Several sites exist (${sites.map((s) => s.code).join(', ')}): name one with site.`);
 }
 
-export async function resolveScope(db: Db, query: WindowQuery): Promise<KpiScope> {
+export async function resolveScope(
+  db: Db,
+  query: WindowQuery,
+  sources: readonly DataSource[] = ['samples', 'work-orders'],
+): Promise<KpiScope> {
   const site = await resolveSiteOnly(db, query.site);
   const assets = await listAssets(db.$client, site.id);
   let asset: AssetRecord | null = null;
@@ -80,7 +92,7 @@ export async function resolveScope(db: Db, query: WindowQuery): Promise<KpiScope
     asset = assets.find((a) => a.code.toLowerCase() === query.asset!.toLowerCase()) ?? null;
     if (!asset) throw notFound('asset-not-found', `No asset "${query.asset}" on site ${site.code}.`);
   }
-  const extent = query.from && query.to ? { from: null, to: null } : await dataExtent(db, site.id);
+  const extent = query.from && query.to ? { from: null, to: null } : await dataExtent(db, site.id, sources);
   const from = query.from ? resolveBound(query.from, site.timeZone) : extent.from;
   const to = query.to ? resolveBound(query.to, site.timeZone) : extent.to;
   if (from && to && from >= to) throw badRequest('invalid-window', `The window is empty: from (${from.toISOString()}) is not before to (${to.toISOString()}).`);

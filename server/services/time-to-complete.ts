@@ -74,7 +74,7 @@ function bucketOut(b: LearningBucket) {
  * The answer carries the vessel-work cautions (DESIGN §9): these jobs open pressure vessels.
  */
 export async function getTimeToComplete(db: Db, query: TimeToCompleteQuery): Promise<TimeToCompleteAnswer> {
-  const scope = await resolveScope(db, query);
+  const scope = await resolveScope(db, query, ['work-orders']);
   // The default window is "the whole range of the data", but the site's data extent (scope.ts) does
   // not look at job steps: a still-open work order's steps can come after it. So a bound the query
   // did not give stays open here, and the answer's window is widened to the jobs found.

@@ -1,4 +1,4 @@
-import { nullReasonMessages } from '#shared/kpi/stats.ts';
+import { nullReasonMessages } from '#shared/kpi/null-reasons.ts';
 import type { NullReason } from '#shared/schemas/kpi.ts';
 
 /** The sentence for a KPI's null reason code (shared/kpi/stats.ts), or the code itself when unknown. */

@@ -1,5 +1,5 @@
 import type { Provenance } from '#shared/schemas/kpi.ts';
-import { formatDateTime } from '../../lib/format.ts';
+import { formatDateTime, formatNumber } from '../../lib/format.ts';
 
 function CodeList({ title, items, total = items.length }: { title: string; items: readonly (string | number)[]; total?: number }) {
   if (items.length === 0) return null;
@@ -38,7 +38,7 @@ export function ProvenanceDetails({ provenance, className }: { provenance: Prove
   ] as const;
   const summary = counts
     .filter(([n]) => n > 0)
-    .map(([n, one, many]) => `${n} ${n === 1 ? one : many}`)
+    .map(([n, one, many]) => `${formatNumber(n, 0)} ${n === 1 ? one : many}`)
     .join(', ');
   return (
     <details className={className}>

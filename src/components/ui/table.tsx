@@ -31,6 +31,8 @@ export interface TableProps<T> {
    * shows more.
    */
   pageSize?: number;
+  /** Narrower cell padding, for tables with many columns. */
+  dense?: boolean;
 }
 
 function compare(a: SortValue, b: SortValue): number {
@@ -61,7 +63,7 @@ function SortIcon({ direction }: { direction: SortDirection | null }) {
   );
 }
 
-export function Table<T>({ caption, hideCaption = false, columns, rows, rowKey, initialSort, empty, pageSize }: TableProps<T>) {
+export function Table<T>({ caption, hideCaption = false, columns, rows, rowKey, initialSort, empty, pageSize, dense = false }: TableProps<T>) {
   const [sort, setSort] = useState(initialSort ?? null);
   const [limit, setLimit] = useState(pageSize ?? Infinity);
   const sorted = useMemo(() => {
@@ -90,7 +92,7 @@ export function Table<T>({ caption, hideCaption = false, columns, rows, rowKey, 
                   key={c.id}
                   scope="col"
                   aria-sort={c.sortValue ? (direction ?? 'none') : undefined}
-                  className={cn('px-4 py-2 font-bold', c.wrapHeader ? 'min-w-20 align-bottom' : 'whitespace-nowrap', c.align === 'right' && 'text-right')}
+                  className={cn(dense ? 'px-3 py-2 font-bold' : 'px-4 py-2 font-bold', c.wrapHeader ? 'min-w-20 align-bottom' : 'whitespace-nowrap', c.align === 'right' && 'text-right')}
                 >
                   {c.sortValue ? (
                     <button
@@ -120,7 +122,7 @@ export function Table<T>({ caption, hideCaption = false, columns, rows, rowKey, 
             visible.map((row) => (
               <tr key={rowKey(row)} className="border-b border-basin-100 last:border-b-0 hover:bg-basin-50/60">
                 {columns.map((c) => (
-                  <td key={c.id} className={cn('px-4 py-2 align-middle', c.align === 'right' && 'text-right tabular-nums', c.className)}>
+                  <td key={c.id} className={cn(dense ? 'px-3 py-2 align-middle' : 'px-4 py-2 align-middle', c.align === 'right' && 'text-right tabular-nums', c.className)}>
                     {c.cell(row)}
                   </td>
                 ))}

@@ -47,6 +47,7 @@ export async function accessFixtures(t: TestApp): Promise<Record<string, Fixture
         attach: { name: `assets-${++counter}.csv`, content: `code,name,kind,parent,rated_permeate_m3h,element_capacity,rack_row,rack_col\nP${counter},Pump,pump,T1,,,,\n` },
       }),
     },
+    'GET /api/sites': { method: 'get', url: '/api/sites' },
     'GET /api/imports': { method: 'get', url: '/api/imports' },
     'GET /api/imports/:id': { method: 'get', url: `/api/imports/${record.id}` },
     'GET /api/imports/:id/rejects.csv': { method: 'get', url: `/api/imports/${record.id}/rejects.csv` },

@@ -24,6 +24,7 @@ export function DowntimeTotalsTable({ totals, currency }: { totals: readonly Tot
     <Table
       caption="Down time by asset"
       columns={columns}
+      dense
       rows={totals}
       rowKey={(t) => t.asset}
       initialSort={{ id: 'hours', direction: 'descending' }}
@@ -83,6 +84,7 @@ export function DowntimeEventsTable({ events, currency }: { events: readonly Eve
     <Table
       caption={`${events.length} ${events.length === 1 ? 'stop' : 'stops'}`}
       columns={columns}
+      dense
       rows={events}
       rowKey={(e) => `${e.asset}|${e.from}`}
       initialSort={{ id: 'from', direction: 'descending' }}

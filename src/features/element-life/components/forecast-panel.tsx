@@ -57,12 +57,14 @@ export function ForecastPanel({ params, currency }: { params: ElementLifeParams;
     },
     { id: 'cost', header: 'Expected cost', align: 'right', sortValue: (g) => g.total.expectedCost, cell: (g) => money(g.total.expectedCost) },
     { id: 'costBand', header: `Cost ${bandLabel}`, align: 'right', cell: (g) => <Range lower={g.total.costLower} upper={g.total.costUpper} format={money} /> },
-    {
+  ];
+  if (report.groups.some((g) => Object.keys(g.reasons ?? {}).length > 0)) {
+    columns.push({
       id: 'note',
       header: 'Note',
       cell: (g) => <span className="text-xs text-basin-600">{Object.values(g.reasons ?? {}).map((r) => nullReasonText(r)).join(' ') || '—'}</span>,
-    },
-  ];
+    });
+  }
 
   return (
     <Card

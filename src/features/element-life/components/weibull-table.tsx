@@ -88,6 +88,7 @@ export function WeibullTable({ groups, confidenceLabel }: { groups: readonly Gro
     <Table
       caption={`Weibull fit (maximum likelihood, right-censored) with ${confidenceLabel} likelihood-ratio intervals under the estimates; KM median read from the Kaplan–Meier curve`}
       columns={columns}
+      dense
       rows={groups}
       rowKey={(g) => g.key}
       empty={<p className="text-center text-basin-600">No element lives in this window.</p>}

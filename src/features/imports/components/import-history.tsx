@@ -6,7 +6,7 @@ import { ErrorBoundary } from '../../../components/ui/error-boundary.tsx';
 import { Table, type Column } from '../../../components/ui/table.tsx';
 import { formatDateTime, formatNumber } from '../../../lib/format.ts';
 import { useImport, useImports, type ImportHistoryItem } from '../api/get-imports.ts';
-import { formatBytes, kindShortLabels, statusLabels, statusTones } from '../utils/labels.ts';
+import { formatBytes, formatImportDuration, kindShortLabels, statusLabels, statusTones } from '../utils/labels.ts';
 import { ImportRecordView } from './import-record-view.tsx';
 
 function Progress({ item }: { item: ImportHistoryItem }) {
@@ -53,7 +53,7 @@ export function ImportHistory() {
       sortValue: (i) => i.file,
       cell: (i) => (
         <span className="block">
-          <span className="font-mono text-xs break-all text-basin-900">{i.file}</span>
+          <span className="font-mono text-xs whitespace-nowrap text-basin-900">{i.file}</span>
           <span className="block text-xs text-basin-600">{kindShortLabels[i.kind]}</span>
         </span>
       ),
@@ -74,7 +74,7 @@ export function ImportHistory() {
       sortValue: (i) => i.rowsRejected,
       cell: (i) => <span className={i.rowsRejected > 0 ? 'font-bold text-ember-700' : undefined}>{formatNumber(i.rowsRejected, 0)}</span>,
     },
-    { id: 'duration', header: 'Duration', align: 'right', sortValue: (i) => i.durationMs, cell: (i) => (i.status === 'running' ? '…' : `${formatNumber(i.durationMs / 1000, 1)} s`) },
+    { id: 'duration', header: 'Duration', align: 'right', sortValue: (i) => i.durationMs, cell: (i) => <span className="whitespace-nowrap">{i.status === 'running' ? '…' : formatImportDuration(i.durationMs)}</span> },
     {
       id: 'details',
       header: 'Details',
@@ -91,6 +91,7 @@ export function ImportHistory() {
       <Table
         caption={`Import history: ${imports.length} ${imports.length === 1 ? 'import' : 'imports'}${running > 0 ? `, ${running} running (refreshed every few seconds)` : ''}`}
         columns={columns}
+      dense
         rows={imports}
         rowKey={(i) => i.id ?? `${i.startedAt}-${i.file}`}
         initialSort={{ id: 'started', direction: 'descending' }}

@@ -3,7 +3,7 @@ import { Badge } from '../../../components/ui/badge.tsx';
 import { Table } from '../../../components/ui/table.tsx';
 import { env } from '../../../config/env.ts';
 import { formatDateTime, formatNumber } from '../../../lib/format.ts';
-import { describeNote, kindLabels, statusLabels, statusMeanings, statusTones } from '../utils/labels.ts';
+import { describeNote, formatImportDuration, kindLabels, statusLabels, statusMeanings, statusTones } from '../utils/labels.ts';
 
 type Reject = ImportRecord['rejects'][number];
 
@@ -50,7 +50,7 @@ export function ImportRecordView({ record }: { record: ImportRecord }) {
         <span className="font-bold text-basin-900">{record.file}</span>
         <span className="text-basin-600">
           {kindLabels[record.kind]}
-          {record.site && ` · site ${record.site}`} · {formatDateTime(record.startedAt)} · {formatNumber(record.durationMs / 1000, 1)} s · by {record.actor}
+          {record.site && ` · site ${record.site}`} · {formatDateTime(record.startedAt)} · {formatImportDuration(record.durationMs)} · by {record.actor}
         </span>
       </div>
       <p className="text-sm text-basin-800">

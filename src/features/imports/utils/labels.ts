@@ -82,6 +82,14 @@ export function describeNote(key: string, value: unknown): [string, string] {
   return [label, String(value)];
 }
 
+/** How long an import took: "420 ms", "3.2 s", "4 min 10 s". */
+export function formatImportDuration(ms: number): string {
+  if (!Number.isFinite(ms) || ms < 0) return '—';
+  if (ms < 1000) return `${Math.round(ms)} ms`;
+  if (ms < 60_000) return `${new Intl.NumberFormat(undefined, { maximumFractionDigits: 1 }).format(ms / 1000)} s`;
+  return `${Math.floor(ms / 60_000)} min ${Math.round((ms % 60_000) / 1000)} s`;
+}
+
 /** A byte count as "12.3 MB". */
 export function formatBytes(bytes: number): string {
   if (!Number.isFinite(bytes) || bytes < 0) return '—';

@@ -82,6 +82,7 @@ export function ReliabilityTable({ groups, confidence, groupBy }: { groups: read
     <Table
       caption={`${groups.length} ${groupBy === 'kind' ? 'asset kinds' : 'assets'} with their own figures`}
       columns={columns}
+      dense
       rows={groups}
       rowKey={(g) => g.key}
       initialSort={{ id: 'mtbf', direction: 'ascending' }}

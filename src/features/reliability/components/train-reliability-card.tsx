@@ -23,7 +23,7 @@ export function TrainReliabilityCard({ params, footer }: { params: KpiWindow; fo
                 <div>
                   <dt className="text-xs text-basin-600">Availability</dt>
                   <dd className="text-2xl font-bold text-basin-950 tabular-nums">{formatShare(t.operationalAvailability, 1)}</dd>
-                  <dd className="text-xs text-basin-600 tabular-nums">inherent {formatShare(t.availability, 1)}</dd>
+                  <dd className="text-xs whitespace-nowrap text-basin-600 tabular-nums">inherent {formatShare(t.availability, 1)}</dd>
                 </div>
                 <div>
                   <dt className="text-xs text-basin-600">MTBF</dt>

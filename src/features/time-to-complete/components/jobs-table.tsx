@@ -26,6 +26,7 @@ export function JobsTable({ jobs }: { jobs: readonly Job[] }) {
     <Table
       caption={`${jobs.length} ${jobs.length === 1 ? 'job' : 'jobs'}, each from its first step’s start to its last step’s end`}
       columns={columns}
+      dense
       rows={jobs}
       rowKey={(j) => j.woNumber}
       initialSort={{ id: 'start', direction: 'descending' }}
