@@ -49,9 +49,12 @@ export const cleaningDescription = /clean[- ]in[- ]place|\bCIP\b|cleaning/i;
 type Stage = PerformanceReport['stages'][number];
 type Point = Stage['points'][number];
 
-/** The listed keys of an object. */
+/**
+ * The listed keys of an object, numbers to 5 significant digits: a daily point of a chart does not
+ * need 16, and the series of a few years of four stages shrinks to a fraction (full detail keeps them).
+ */
 function pick<T extends object, K extends keyof T>(from: T, keys: readonly K[]): Pick<T, K> {
-  return Object.fromEntries(keys.map((k) => [k, from[k]])) as Pick<T, K>;
+  return Object.fromEntries(keys.map((k) => [k, typeof from[k] === 'number' ? Number((from[k] as number).toPrecision(5)) : from[k]])) as Pick<T, K>;
 }
 
 /** One stage's answer, with what it was computed from and, when it has no figures, why. */

@@ -73,14 +73,20 @@ export async function rebuildStops(q: Queryable, tags: RunTag[], from: Date, to:
   );
   const startOf = new Map(open.rows.map((r) => [r.tag_id, r.from_ts]));
   const start = new Date(Math.min(from.getTime(), ...open.rows.map((r) => r.from_ts.getTime())));
-  // The state of each tag just before its range (good samples within 30 days before it).
-  const prior = await q.query<{ tag_id: number; value: number }>(
-    `select distinct on (tag_id) tag_id, value from samples
-     where tag_id = any($1) and ts < $2 and ts >= $3::timestamptz - interval '30 days' and (quality & 192) = 192
-     order by tag_id, ts desc`,
-    [ids, from, start],
-  );
-  const priorOf = new Map(prior.rows.map((r) => [r.tag_id, r.value >= 0.5]));
+  // The state of each tag just before its range: its last good sample, looked for an hour back, then
+  // a day, then 30 days (the BRIN index reads only those blocks, so the usual case costs an hour's rows).
+  const priorOf = new Map<number, boolean>();
+  for (const lookback of ['1 hour', '1 day', '30 days']) {
+    const missing = ids.filter((id) => !priorOf.has(id));
+    if (missing.length === 0) break;
+    const prior = await q.query<{ tag_id: number; value: number }>(
+      `select distinct on (tag_id) tag_id, value from samples
+       where tag_id = any($1) and ts < $2 and ts >= $3::timestamptz - $4::interval and (quality & 192) = 192
+       order by tag_id, ts desc`,
+      [missing, from, start, lookback],
+    );
+    for (const r of prior.rows) priorOf.set(r.tag_id, r.value >= 0.5);
+  }
   // Every change of state inside the range, all tags in one scan.
   const { rows } = await q.query<{ tag_id: number; ts: Date; running: boolean }>(
     `select tag_id, ts, running from (

@@ -18,8 +18,8 @@ export function ImportsPanel() {
         </Card>
       )}
       <p className="text-sm text-basin-700">
-        Historian samples reach the hourly rollups and the stop events, and with them performance, downtime and operating time, at the next refresh
-        (the nightly run, or <code className="rounded bg-basin-100 px-1 font-mono text-xs">bin/osmia refresh</code>).
+        A historian file uploaded here is rolled up as soon as it lands, so performance, downtime and operating time show it at once. Files imported
+        from the command line are rolled up by <code className="rounded bg-basin-100 px-1 font-mono text-xs">bin/osmia refresh</code> (the nightly run).
       </p>
       <ErrorBoundary title="Import history">
         <ImportHistory />
