@@ -262,7 +262,9 @@ export const samples = pgTable(
     value: doublePrecision('value').notNull(),
     quality: smallint('quality').notNull(),
   },
-  (t) => [index('samples_ts_brin').using('brin', t.ts).with({ pages_per_range: 16 })],
+  // autosummarize: block ranges filled by later COPYs are summarized by autovacuum; imports also
+  // summarize their new ranges at once (a range not yet summarized is read by every BRIN scan).
+  (t) => [index('samples_ts_brin').using('brin', t.ts).with({ pages_per_range: 16, autosummarize: true })],
 );
 
 /** Per import and tag, the span and count of samples it brought: how overlaps are found cheaply. */

@@ -67,3 +67,12 @@ export async function markDirtyHours(q: Queryable, spans: TagSpan[]): Promise<vo
     [spans.map((s) => s.tagId), spans.map((s) => s.from), spans.map((s) => s.to)],
   );
 }
+
+/**
+ * Summarize the BRIN block ranges new rows filled. Until a range is summarized every scan of the
+ * index reads it, so without this a time-range query after a large import reads the whole table.
+ */
+export async function summarizeNewSamples(q: Queryable): Promise<number> {
+  const { rows } = await q.query<{ n: number }>(`select brin_summarize_new_values('samples_ts_brin')::int as n`);
+  return rows[0].n;
+}

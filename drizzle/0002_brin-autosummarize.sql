@@ -1,0 +1,1 @@
+ALTER INDEX "samples_ts_brin" SET (autosummarize = true);
