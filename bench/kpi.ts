@@ -82,8 +82,8 @@ try {
   const counts = (await db.$client.query<{ samples: number; work_orders: number }>(`select (select count(*) from samples)::int as samples, (select count(*) from work_orders)::int as work_orders`)).rows[0];
   await db.$client.query('analyze');
 
-  // Planner statistics for the fresh 20 M rows (autovacuum would get there later). No VACUUM: the
-  // importer summarizes the BRIN ranges it filled, which is what keeps range scans short.
+  // Planner statistics for the fresh 20 M rows (autovacuum would get there later). No VACUUM: refresh
+  // summarizes the BRIN ranges imports filled, which is what keeps its range scans short.
   await db.$client.query('analyze');
 
   // Refresh: full rebuild, then three more days of samples, each imported and refreshed on its own.

@@ -262,8 +262,8 @@ export const samples = pgTable(
     value: doublePrecision('value').notNull(),
     quality: smallint('quality').notNull(),
   },
-  // autosummarize: block ranges filled by later COPYs are summarized by autovacuum; imports also
-  // summarize their new ranges at once (a range not yet summarized is read by every BRIN scan).
+  // autosummarize: block ranges filled by later COPYs are summarized by autovacuum; refresh also
+  // summarizes new ranges before it reads (a range not yet summarized is read by every BRIN scan).
   (t) => [index('samples_ts_brin').using('brin', t.ts).with({ pages_per_range: 16, autosummarize: true })],
 );
 

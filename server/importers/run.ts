@@ -15,7 +15,6 @@ import {
   insertRunningImport,
   sweepInterruptedImports,
 } from '../db/queries/imports.ts';
-import { summarizeNewSamples } from '../db/queries/samples.ts';
 import { findSite, insertSite, listSites, type SiteRow } from '../db/queries/sites.ts';
 import { applyColumnMap, type ColumnMap } from './column-map.ts';
 import { RejectSink, type KindContext, type KindResult } from './context.ts';
@@ -216,9 +215,6 @@ export async function runImport(db: Db, opts: ImportOptions): Promise<ImportReco
         error: null,
       });
       await client.query('commit');
-      // After the commit the file has landed: a failed summary must not report the import as failed
-      // (autovacuum summarizes the ranges later).
-      if (opts.kind === 'historian' && result.rowsInserted > 0) await summarizeNewSamples(client).catch(() => 0);
     } catch (err) {
       await client.query('rollback').catch(() => undefined);
       // Another import of the same file landed while this one ran: this one is the duplicate.

@@ -1,5 +1,6 @@
 import type { Db } from '../db/client.ts';
 import { claimDirtyRanges, markAllDirty, rebuildHourly, rebuildStops, runStatusTags } from '../db/queries/derived.ts';
+import { summarizeNewSamples } from '../db/queries/samples.ts';
 
 export interface RefreshResult {
   full: boolean;
@@ -21,6 +22,9 @@ export async function refresh(db: Db, options: { full?: boolean; log?: (line: st
   let hoursRebuilt = 0;
   let stopsRebuilt = 0;
   try {
+    // The BRIN ranges imports filled since the last run: summarized first, so the range scans below
+    // read only their own blocks (imports leave this to refresh to stay as fast as a plain COPY).
+    await summarizeNewSamples(client);
     await client.query('begin');
     // Grouping a year of samples by tag and hour is one big hash aggregate: give it room.
     await client.query(`set local work_mem = '256MB'`);
