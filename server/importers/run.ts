@@ -1,7 +1,7 @@
 // One implementation of every import, used by `osmia import`, `osmia seed --demo` and POST /api/imports.
 import { createHash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
-import { stat } from 'node:fs/promises';
+import { open, stat } from 'node:fs/promises';
 import { basename } from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import type { ImportKind } from '#shared/schemas/enums.ts';
@@ -11,6 +11,7 @@ import {
   copyRejects,
   findLandedImport,
   finishImport,
+  hasLandedFingerprint,
   getImport,
   insertRunningImport,
   sweepInterruptedImports,
@@ -49,6 +50,32 @@ const importers: Record<ImportKind, (ctx: KindContext) => Promise<KindResult>> =
   elements: importElements,
   'job-steps': importJobSteps,
 };
+
+/** sha256 of the size and the first and last megabyte: cheap, and equal for equal files. */
+async function fileFingerprint(path: string, size: number): Promise<string> {
+  const fh = await open(path, 'r');
+  try {
+    const mb = 1 << 20;
+    const head = Buffer.alloc(Math.min(mb, size));
+    const tail = Buffer.alloc(Math.min(mb, size));
+    await fh.read(head, 0, head.length, 0);
+    await fh.read(tail, 0, tail.length, Math.max(0, size - mb));
+    return createHash('sha256').update(String(size)).update(head).update(tail).digest('hex');
+  } finally {
+    await fh.close();
+  }
+}
+
+async function isZip(path: string): Promise<boolean> {
+  const fh = await open(path, 'r');
+  try {
+    const b = Buffer.alloc(2);
+    await fh.read(b, 0, 2, 0);
+    return b[0] === 0x50 && b[1] === 0x4b;
+  } finally {
+    await fh.close();
+  }
+}
 
 export async function sha256File(path: string): Promise<string> {
   const hash = createHash('sha256');
@@ -108,7 +135,11 @@ export async function runImport(db: Db, opts: ImportOptions): Promise<ImportReco
   const fileName = opts.fileName ?? basename(opts.path);
   const startedAt = new Date().toISOString();
   const totalBytes = (await stat(opts.path)).size;
-  const sha256 = await sha256File(opts.path);
+  // A file seen before is hashed whole before anything else, so a duplicate costs one read; a new
+  // CSV is hashed as it is parsed (one read instead of two). "Seen before" is a fingerprint of its
+  // size and first and last megabyte, kept with each import.
+  const fingerprint = await fileFingerprint(opts.path, totalBytes);
+  let sha256 = '';
   await sweepInterruptedImports(db.$client);
 
   const record = (partial: Partial<ImportRecord>): ImportRecord => ({
@@ -142,9 +173,17 @@ export async function runImport(db: Db, opts: ImportOptions): Promise<ImportReco
   }
   const siteId = 'id' in site ? site.id : null;
   const siteCode = 'id' in site ? site.code : site.create;
-  const options = { site: siteCode, tz: opts.tz ?? null, strict: Boolean(opts.strict), columnMap: opts.columnMap ? Object.fromEntries(opts.columnMap) : null };
+  const options = {
+    site: siteCode,
+    tz: opts.tz ?? null,
+    strict: Boolean(opts.strict),
+    columnMap: opts.columnMap ? Object.fromEntries(opts.columnMap) : null,
+    fingerprint,
+  };
 
-  if (siteId !== null && (await findLandedImport(db.$client, siteId, opts.kind, sha256)) !== undefined) {
+  const seenBefore = siteId !== null && (await hasLandedFingerprint(db.$client, siteId, opts.kind, fingerprint));
+  if (seenBefore || (await isZip(opts.path))) sha256 = await sha256File(opts.path);
+  if (sha256 && siteId !== null && (await findLandedImport(db.$client, siteId, opts.kind, sha256)) !== undefined) {
     if (opts.dryRun) return record({ site: siteCode, status: 'duplicate', notes: { duplicateOf: await findLandedImport(db.$client, siteId, opts.kind, sha256) } });
     return recordDuplicate(db, { siteId, kind: opts.kind, fileName, sha256, actor: opts.actor, options, t0 });
   }
@@ -163,7 +202,7 @@ export async function runImport(db: Db, opts: ImportOptions): Promise<ImportReco
   let finalSiteId = siteId;
   try {
     if (!opts.dryRun) {
-      importId = await insertRunningImport(client, { siteId, kind: opts.kind, fileName, sha256, actor: opts.actor, options });
+      importId = await insertRunningImport(client, { siteId, kind: opts.kind, fileName, sha256: sha256 || `pending:${fingerprint}`, actor: opts.actor, options });
       opts.onStart?.(importId);
     }
     await client.query('begin');
@@ -189,6 +228,17 @@ export async function runImport(db: Db, opts: ImportOptions): Promise<ImportReco
         progress: (rowsRead) => opts.onProgress?.({ bytesRead: source.bytesRead(), totalBytes, rowsRead }),
       };
       result = await importers[opts.kind](ctx);
+      if (!sha256) {
+        sha256 = source.sha256() ?? (await sha256File(opts.path));
+        // The same content landed before under another fingerprint (possible only by collision of
+        // size and both ends): this run is a duplicate after all.
+        if ((await findLandedImport(client, finalSiteId, opts.kind, sha256)) !== undefined) {
+          await client.query('rollback');
+          if (importId === null) return record({ site: siteCode, status: 'duplicate' });
+          await finishImport(client, importId, { ...zeroCounts, sha256, siteId: finalSiteId, status: 'duplicate', durationMs: Date.now() - t0, notes: {}, error: null });
+          return (await getImport(db.$client, importId))!;
+        }
+      }
       notes.format = source.format;
       if (source.delimiter) notes.delimiter = source.delimiter;
       if (time.dst.gapShifted) notes.dstGapShifted = time.dst.gapShifted;
@@ -204,6 +254,7 @@ export async function runImport(db: Db, opts: ImportOptions): Promise<ImportReco
       }
       await copyRejects(client, importId!, rejects.kept);
       await finishImport(client, importId!, {
+        sha256,
         siteId: finalSiteId,
         status,
         rowsRead: result.rowsRead,
@@ -219,7 +270,7 @@ export async function runImport(db: Db, opts: ImportOptions): Promise<ImportReco
       await client.query('rollback').catch(() => undefined);
       // Another import of the same file landed while this one ran: this one is the duplicate.
       if ((err as { constraint?: string }).constraint === 'imports_landed_key' && importId !== null) {
-        await finishImport(client, importId, { ...zeroCounts, siteId: finalSiteId, status: 'duplicate', durationMs: Date.now() - t0, notes: {}, error: null });
+        await finishImport(client, importId, { ...zeroCounts, sha256, siteId: finalSiteId, status: 'duplicate', durationMs: Date.now() - t0, notes: {}, error: null });
         return (await getImport(db.$client, importId))!;
       }
       const message = err instanceof ImportFileError ? err.message : `Import failed, nothing was kept: ${(err as Error).message}`;
@@ -227,6 +278,7 @@ export async function runImport(db: Db, opts: ImportOptions): Promise<ImportReco
       if (importId === null) return record({ site: siteCode, error: message, rowsRejected: kept.length, rejects: kept.slice(0, 100) });
       await copyRejects(client, importId, kept);
       await finishImport(client, importId, {
+        sha256: sha256 || `pending:${fingerprint}`,
         siteId,
         status: 'failed',
         rowsRead: result.rowsRead,
@@ -256,7 +308,7 @@ async function recordDuplicate(
   const client = await db.$client.connect();
   try {
     const id = await insertRunningImport(client, v);
-    await finishImport(client, id, { ...zeroCounts, siteId: v.siteId, status: 'duplicate', durationMs: Date.now() - v.t0, notes: {}, error: null });
+    await finishImport(client, id, { ...zeroCounts, sha256: v.sha256, siteId: v.siteId, status: 'duplicate', durationMs: Date.now() - v.t0, notes: {}, error: null });
     await client.query('select pg_advisory_unlock(2, $1)', [id]);
     return (await getImport(db.$client, id))!;
   } finally {

@@ -1,5 +1,6 @@
 // Reading an import file as batches of rows with their physical line numbers, whatever it is:
 // CSV (UTF-8, with or without BOM, comma or semicolon, quoted fields) or XLSX (first sheet).
+import { createHash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
 import { open } from 'node:fs/promises';
 import { PassThrough, Transform } from 'node:stream';
@@ -21,6 +22,8 @@ export interface Source {
   batches: AsyncGenerator<RawRow[]>;
   /** Bytes read so far (for progress). */
   bytesRead: () => number;
+  /** sha256 of the whole file, hashed as it was read; known once the batches are exhausted (CSV only). */
+  sha256: () => string | null;
   /** Problems that made whole rows unreadable (unterminated quote…), by line. */
   parseErrors: { line: number; reason: string }[];
 }
@@ -73,15 +76,24 @@ async function openCsv(path: string, head: Buffer): Promise<Source> {
   const delimiter = detectDelimiter(firstLine);
   let bytes = 0;
   let sawQuote = false;
+  // The file's sha256 is taken on the way through, so a new file is read once, not twice.
+  const hash = createHash('sha256');
+  let digest: string | null = null;
   const counter = new Transform({
     transform(chunk: Buffer, _enc, done) {
+      hash.update(chunk);
+      const text = bytes === 0 && bom ? chunk.subarray(3) : chunk;
       bytes += chunk.length;
-      if (!sawQuote && chunk.includes(0x22)) sawQuote = true;
-      done(null, chunk);
+      if (!sawQuote && text.includes(0x22)) sawQuote = true;
+      done(null, text);
+    },
+    flush(done) {
+      digest = hash.digest('hex');
+      done();
     },
   });
   // Default 64 kB reads: papaparse slowed down threefold with 256 kB chunks and more with 1 MB (measured).
-  const input = createReadStream(path, { start: bom ? 3 : 0 });
+  const input = createReadStream(path);
   const text$ = input.pipe(counter).pipe(new PassThrough({ encoding: 'utf8' }));
   input.on('error', (err) => text$.destroy(err));
 
@@ -179,7 +191,7 @@ async function openCsv(path: string, head: Buffer): Promise<Source> {
     void rowsSeen;
   }
 
-  return { format: 'csv', delimiter, header, batches: batches(), bytesRead: () => bytes, parseErrors };
+  return { format: 'csv', delimiter, header, batches: batches(), bytesRead: () => bytes, sha256: () => digest, parseErrors };
 }
 
 function newlinesIn(cells: string[]): number {
@@ -249,7 +261,7 @@ async function openXlsx(path: string): Promise<Source> {
     }
     if (batch.length) yield batch;
   }
-  return { format: 'xlsx', delimiter: null, header, batches: batches(), bytesRead: () => bytes, parseErrors: [] };
+  return { format: 'xlsx', delimiter: null, header, batches: batches(), bytesRead: () => bytes, sha256: () => null, parseErrors: [] };
 }
 
 export { maxFieldLength };

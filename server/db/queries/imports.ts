@@ -70,6 +70,7 @@ export async function finishImport(
   q: Queryable,
   id: number,
   values: {
+    sha256: string;
     siteId: number | null;
     status: ImportStatus;
     rowsRead: number;
@@ -83,8 +84,8 @@ export async function finishImport(
 ): Promise<void> {
   await q.query(
     `update imports set site_id = $2, status = $3, rows_read = $4, rows_inserted = $5, rows_unchanged = $6, rows_rejected = $7,
-       duration_ms = $8, notes = $9, error = $10, finished_at = now() where id = $1`,
-    [id, values.siteId, values.status, values.rowsRead, values.rowsInserted, values.rowsUnchanged, values.rowsRejected, values.durationMs, values.notes, values.error],
+       duration_ms = $8, notes = $9, error = $10, sha256 = $11, finished_at = now() where id = $1`,
+    [id, values.siteId, values.status, values.rowsRead, values.rowsInserted, values.rowsUnchanged, values.rowsRejected, values.durationMs, values.notes, values.error, values.sha256],
   );
 }
 
@@ -95,6 +96,15 @@ export async function findLandedImport(q: Queryable, siteId: number | null, kind
     [siteId, kind, sha256],
   );
   return rows[0]?.id;
+}
+
+/** Whether a landed import of this kind and site had a file with this fingerprint (see runImport). */
+export async function hasLandedFingerprint(q: Queryable, siteId: number, kind: ImportKind, fingerprint: string): Promise<boolean> {
+  const { rowCount } = await q.query(
+    `select 1 from imports where site_id = $1 and kind = $2 and status in ('completed', 'partial') and options->>'fingerprint' = $3 limit 1`,
+    [siteId, kind, fingerprint],
+  );
+  return (rowCount ?? 0) > 0;
 }
 
 /**
