@@ -85,7 +85,7 @@ export const normalizedValuesSchema = z.object({
 export const normalizedPointSchema = z.object({ state: stageStateSchema, normalized: normalizedValuesSchema });
 
 /** Figures kept for each daily point with detail=summary (the default). */
-export const summaryStateKeys = ['time', 'tempC', 'tcf', 'recovery', 'netDrivingPressureBar', 'permeateFlowM3h', 'saltPassagePct', 'differentialPressureBar'] as const;
+export const summaryStateKeys = ['time', 'tempC'] as const;
 export const summaryNormalizedKeys = [
   'permeateFlowM3h',
   'saltPassagePct',
