@@ -19,12 +19,15 @@ export interface WorkOrderValues {
   crew: string | null;
 }
 
+/** The columns of a work order as WorkOrderValues (plus id), for every query below. */
+const workOrderColumns = `id, wo_number as "woNumber", asset_id as "assetId", type, priority, status, failure_code as "failureCode",
+  description, reported_at as "reportedAt", started_at as "startedAt", completed_at as "completedAt",
+  out_of_service_from as "outOfServiceFrom", out_of_service_to as "outOfServiceTo",
+  labour_hours as "labourHours", labour_cost as "labourCost", parts_cost as "partsCost", crew`;
+
 export async function listWorkOrderValues(q: Queryable, siteId: number): Promise<(WorkOrderValues & { id: number })[]> {
   const { rows } = await q.query<WorkOrderValues & { id: number }>(
-    `select id, wo_number as "woNumber", asset_id as "assetId", type, priority, status, failure_code as "failureCode",
-            description, reported_at as "reportedAt", started_at as "startedAt", completed_at as "completedAt",
-            out_of_service_from as "outOfServiceFrom", out_of_service_to as "outOfServiceTo",
-            labour_hours as "labourHours", labour_cost as "labourCost", parts_cost as "partsCost", crew
+    `select ${workOrderColumns}
      from work_orders where site_id = $1`,
     [siteId],
   );
@@ -84,10 +87,7 @@ export async function listWorkOrdersOpenDuring(
 ): Promise<(WorkOrderValues & { id: number })[]> {
   if (assetIds.length === 0) return [];
   const { rows } = await q.query<WorkOrderValues & { id: number }>(
-    `select id, wo_number as "woNumber", asset_id as "assetId", type, priority, status, failure_code as "failureCode",
-            description, reported_at as "reportedAt", started_at as "startedAt", completed_at as "completedAt",
-            out_of_service_from as "outOfServiceFrom", out_of_service_to as "outOfServiceTo",
-            labour_hours as "labourHours", labour_cost as "labourCost", parts_cost as "partsCost", crew
+    `select ${workOrderColumns}
      from work_orders
      where site_id = $1 and asset_id = any($2::int[]) and reported_at < $4 and (completed_at is null or completed_at >= $3)
      order by wo_number`,
@@ -109,10 +109,7 @@ export async function listWorkOrdersReportedOrOutOfServiceIn(
 ): Promise<(WorkOrderValues & { id: number })[]> {
   if (assetIds.length === 0) return [];
   const { rows } = await q.query<WorkOrderValues & { id: number }>(
-    `select id, wo_number as "woNumber", asset_id as "assetId", type, priority, status, failure_code as "failureCode",
-            description, reported_at as "reportedAt", started_at as "startedAt", completed_at as "completedAt",
-            out_of_service_from as "outOfServiceFrom", out_of_service_to as "outOfServiceTo",
-            labour_hours as "labourHours", labour_cost as "labourCost", parts_cost as "partsCost", crew
+    `select ${workOrderColumns}
      from work_orders
      where site_id = $1 and asset_id = any($2::int[])
        and ((reported_at >= $3 and reported_at < $4) or (out_of_service_from < $4 and out_of_service_to > $3))
@@ -131,10 +128,7 @@ export async function listPreventiveWorkOrders(
 ): Promise<(WorkOrderValues & { id: number })[]> {
   if (assetIds.length === 0) return [];
   const { rows } = await q.query<WorkOrderValues & { id: number }>(
-    `select id, wo_number as "woNumber", asset_id as "assetId", type, priority, status, failure_code as "failureCode",
-            description, reported_at as "reportedAt", started_at as "startedAt", completed_at as "completedAt",
-            out_of_service_from as "outOfServiceFrom", out_of_service_to as "outOfServiceTo",
-            labour_hours as "labourHours", labour_cost as "labourCost", parts_cost as "partsCost", crew
+    `select ${workOrderColumns}
      from work_orders
      where site_id = $1 and asset_id = any($2::int[]) and type = 'preventive' and reported_at < $3
      order by wo_number`,
