@@ -270,7 +270,13 @@ export function planMaintenance(
     clipToEnd(order, end);
     if (order.status !== 'open' && order.status !== 'cancelled' && order.startedAt !== null) {
       const until = order.completedAt ?? end;
-      const hours = quarterHours((crewSize * (until - order.startedAt) * rng.between(0.85, 1)) / HOUR);
+      // A job of a shift or less is worked throughout; a longer one is worked one 8-hour shift per
+      // calendar day, not around the clock; one still in progress has had at most five shifts so far
+      // (it is worked in between other jobs).
+      const elapsedHours = (until - order.startedAt) / HOUR;
+      const shifts = Math.ceil(elapsedHours / 24);
+      const workedHours = elapsedHours <= 12 ? elapsedHours : (order.completedAt === null ? Math.min(shifts, 5) : shifts) * 8;
+      const hours = quarterHours(crewSize * workedHours * rng.between(0.85, 1));
       order.labourHours = hours;
       order.labourCost = round2(hours * rate);
     } else {
