@@ -2,15 +2,13 @@
 // holds the invented demo plant (imported through the importers, then refreshed). Each page is opened
 // by a role that may read it; its key figures must match the API's answer, read nothing like NaN or
 // "undefined", and raise no console error. Every step leaves a screenshot in tests/e2e/screenshots/.
-import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import { mkdirSync, mkdtempSync } from 'node:fs';
 import type { Server } from 'node:http';
-import type { AddressInfo } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
 import request from 'supertest';
-import { build } from 'vite';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ZodType, z } from 'zod';
 import { chemicalHandlingCaution, isolateAndDepressurizeCaution } from '#shared/cautions.ts';
@@ -20,9 +18,9 @@ import { downtimeReportSchema, maintenanceMixReportSchema, performanceReportSche
 import { elementLifeReportSchema, forecastReportSchema, reliabilityReportSchema, timeToCompleteReportSchema } from '#shared/schemas/kpi.ts';
 import { settingsSchema } from '#shared/schemas/settings.ts';
 import { seedDemo } from '#server/demo/seed.ts';
+import { buildClient, launchChromium, listen, tearDown } from './harness.ts';
 import { createTestApp, rolePasswords, type TestApp } from '../setup/app.ts';
 
-const root = fileURLToPath(new URL('../..', import.meta.url));
 const shotsDir = fileURLToPath(new URL('./screenshots', import.meta.url));
 
 let t: TestApp;
@@ -35,41 +33,17 @@ let demoDir: string;
 let timeZone: string;
 
 beforeAll(async () => {
-  dist = mkdtempSync(join(tmpdir(), 'osmia-client-'));
-  // vitest runs with NODE_ENV=test; the client is built as in production (React's production build).
-  const nodeEnv = process.env.NODE_ENV;
-  process.env.NODE_ENV = 'production';
-  try {
-    await build({ root, configFile: join(root, 'vite.config.ts'), logLevel: 'warn', build: { outDir: dist, emptyOutDir: true } });
-  } finally {
-    process.env.NODE_ENV = nodeEnv;
-  }
+  dist = await buildClient();
   t = await createTestApp({}, { clientDist: dist });
   demoDir = mkdtempSync(join(tmpdir(), 'osmia-demo-e2e-'));
   const seeded = await seedDemo(t.db, { outDir: demoDir, years: 1, stepMinutes: 60 });
   timeZone = seeded.manifest.site.timeZone;
-  server = await new Promise<Server>((resolve, reject) => {
-    const s = t.app.listen(0, '127.0.0.1', () => resolve(s));
-    s.once('error', reject);
-  });
-  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
-  browser = await chromium.launch({
-    executablePath: '/usr/bin/chromium',
-    args: ['--headless=new', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-  });
+  ({ server, base } = await listen(t.app));
+  browser = await launchChromium();
   mkdirSync(shotsDir, { recursive: true });
 });
 
-afterAll(async () => {
-  await browser?.close();
-  if (server) {
-    await new Promise<void>((resolve) => server.close(() => resolve()));
-    server.closeAllConnections();
-  }
-  await t?.close();
-  if (dist) rmSync(dist, { recursive: true, force: true });
-  if (demoDir) rmSync(demoDir, { recursive: true, force: true });
-});
+afterAll(() => tearDown({ browser, server, t, dirs: [dist, demoDir] }));
 
 /** The API's answer to `path` for `role`, parsed with the shared schema: what the page must show. */
 async function api<S extends ZodType>(role: Role, path: string, schema: S): Promise<z.infer<S>> {

@@ -2,21 +2,18 @@
 // the role's navigation, the users and settings pages, and no console errors. Each step leaves a
 // screenshot in tests/e2e/screenshots/ (git-ignored) to look at. The database here holds no plant
 // (a fresh server); kpi-pages.test.ts opens the KPI pages with the demo plant.
-import { mkdirSync, mkdtempSync, readdirSync, rmSync } from 'node:fs';
+import { mkdirSync, readdirSync } from 'node:fs';
 import type { Server } from 'node:http';
-import type { AddressInfo } from 'node:net';
-import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
-import { build } from 'vite';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { roles, type Role } from '#shared/schemas/enums.ts';
 import { settingsDefaults } from '#shared/schemas/settings.ts';
 import { navigationFor, pages } from '#src/config/navigation.ts';
+import { buildClient, launchChromium, listen, tearDown } from './harness.ts';
 import { createTestApp, rolePasswords, type TestApp } from '../setup/app.ts';
 
-const root = fileURLToPath(new URL('../..', import.meta.url));
 const shotsDir = fileURLToPath(new URL('./screenshots', import.meta.url));
 
 // The role → page table as the product brief gives it, written out here independently of
@@ -44,37 +41,14 @@ let browser: Browser;
 let dist: string;
 
 beforeAll(async () => {
-  dist = mkdtempSync(join(tmpdir(), 'osmia-client-'));
-  // vitest runs with NODE_ENV=test; the client is built as in production (React's production build).
-  const nodeEnv = process.env.NODE_ENV;
-  process.env.NODE_ENV = 'production';
-  try {
-    await build({ root, configFile: join(root, 'vite.config.ts'), logLevel: 'warn', build: { outDir: dist, emptyOutDir: true } });
-  } finally {
-    process.env.NODE_ENV = nodeEnv;
-  }
+  dist = await buildClient();
   t = await createTestApp({}, { clientDist: dist });
-  server = await new Promise<Server>((resolve, reject) => {
-    const s = t.app.listen(0, '127.0.0.1', () => resolve(s));
-    s.once('error', reject);
-  });
-  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
-  browser = await chromium.launch({
-    executablePath: '/usr/bin/chromium',
-    args: ['--headless=new', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-  });
+  ({ server, base } = await listen(t.app));
+  browser = await launchChromium();
   mkdirSync(shotsDir, { recursive: true });
 });
 
-afterAll(async () => {
-  await browser?.close();
-  if (server) {
-    await new Promise<void>((resolve) => server.close(() => resolve()));
-    server.closeAllConnections();
-  }
-  await t?.close();
-  if (dist) rmSync(dist, { recursive: true, force: true });
-});
+afterAll(() => tearDown({ browser, server, t, dirs: [dist] }));
 
 /** An HTTP refusal a step provokes on purpose (Chromium logs each as a console error). */
 interface ExpectedFailure {
