@@ -6,8 +6,7 @@
 import { spawnSync } from 'node:child_process';
 import { createWriteStream, existsSync, mkdirSync, statSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import pg from 'pg';
-import { startThrowawayCluster } from '#server/db/cluster.ts';
+import { openBenchDatabase } from './database.ts';
 
 const root = join(import.meta.dirname, '..');
 const out = join(root, 'bench', 'out');
@@ -48,14 +47,8 @@ if (!existsSync(file)) {
 }
 const sizeMb = statSync(file).size / 1e6;
 
-const cluster = process.env.DATABASE_URL ? undefined : await startThrowawayCluster();
-const serverUrl = process.env.DATABASE_URL ?? cluster!.url;
-const admin = new pg.Client({ connectionString: serverUrl });
-await admin.connect();
-const dbName = `osmia_bench_${Date.now()}`;
-await admin.query(`create database ${dbName}`);
-await admin.end();
-const url = Object.assign(new URL(serverUrl), { pathname: `/${dbName}` }).toString();
+const bench = await openBenchDatabase('osmia_bench');
+const url = bench.url;
 const env = { ...process.env, DATABASE_URL: url };
 const osmia = join(root, 'bin', 'osmia');
 
@@ -98,11 +91,5 @@ try {
       `| ${rows.toLocaleString('en-US')} | ${result.fileMb} MB | ${copy.seconds.toFixed(1)} s (${result.psqlCopyRowsPerSecond.toLocaleString('en-US')} rows/s) | ${imp.seconds.toFixed(1)} s (${result.importRowsPerSecond.toLocaleString('en-US')} rows/s) | ${result.ratio} | ${result.importPeakRssMb} MB |`,
   );
 } finally {
-  if (cluster) await cluster.dispose();
-  else {
-    const c = new pg.Client({ connectionString: serverUrl });
-    await c.connect();
-    await c.query(`drop database if exists ${dbName} with (force)`);
-    await c.end();
-  }
+  await bench.dispose();
 }

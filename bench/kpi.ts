@@ -8,9 +8,8 @@
 import { mkdirSync, writeFileSync, createWriteStream } from 'node:fs';
 import { join } from 'node:path';
 import autocannon from 'autocannon';
-import pg from 'pg';
 import { closeDb, createDb } from '#server/db/client.ts';
-import { startThrowawayCluster } from '#server/db/cluster.ts';
+import { openBenchDatabase } from './database.ts';
 import { migrateDb } from '#server/db/migrate.ts';
 import { seedDemo } from '#server/demo/seed.ts';
 import { seedDemoUsers } from '#server/demo/users.ts';
@@ -31,14 +30,8 @@ const seconds = arg('seconds', 10);
 const log = (s: string) => process.stderr.write(s + '\n');
 
 mkdirSync(out, { recursive: true });
-const cluster = process.env.DATABASE_URL ? undefined : await startThrowawayCluster(log);
-const serverUrl = process.env.DATABASE_URL ?? cluster!.url;
-const dbName = `osmia_kpibench_${Date.now()}`;
-const admin = new pg.Client({ connectionString: serverUrl });
-await admin.connect();
-await admin.query(`create database ${dbName}`);
-await admin.end();
-const url = Object.assign(new URL(serverUrl), { pathname: `/${dbName}` }).toString();
+const bench = await openBenchDatabase('osmia_kpibench', log);
+const url = bench.url;
 const db = createDb(url);
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
@@ -219,11 +212,5 @@ try {
   }
 } finally {
   await closeDb(db);
-  if (cluster) await cluster.dispose();
-  else {
-    const c = new pg.Client({ connectionString: serverUrl });
-    await c.connect();
-    await c.query(`drop database if exists ${dbName} with (force)`);
-    await c.end();
-  }
+  await bench.dispose();
 }

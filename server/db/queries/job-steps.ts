@@ -36,14 +36,8 @@ export async function upsertJobSteps(q: Queryable, importId: number | null, rows
 }
 
 /** A job step with the work-order facts time-to-complete groups by. */
-export interface JobStepWithOrder {
+export interface JobStepWithOrder extends Omit<JobStepValues, 'workOrderId'> {
   woNumber: string;
-  step: number;
-  name: string;
-  startedAt: Date;
-  completedAt: Date;
-  guided: boolean;
-  technician: string | null;
   type: string;
   failureCode: string | null;
   description: string;

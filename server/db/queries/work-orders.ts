@@ -74,65 +74,43 @@ export async function upsertWorkOrders(q: Queryable, siteId: number, importId: n
   }
 }
 
+type WorkOrderRow = WorkOrderValues & { id: number };
+
+/** Work orders of the site on the given assets that also meet `condition` ($3… are `params`), by number. */
+async function listOnAssets(q: Queryable, siteId: number, assetIds: readonly number[], condition: string, params: unknown[]): Promise<WorkOrderRow[]> {
+  if (assetIds.length === 0) return [];
+  const { rows } = await q.query<WorkOrderRow>(
+    `select ${workOrderColumns} from work_orders
+     where site_id = $1 and asset_id = any($2::int[]) and (${condition})
+     order by wo_number`,
+    [siteId, assetIds, ...params],
+  );
+  return rows;
+}
+
 /**
  * Work orders on the given assets that matter to a window [from, to): reported before `to` and not
  * completed before `from` (every order raised, worked, completed or still open in the window).
  */
-export async function listWorkOrdersOpenDuring(
-  q: Queryable,
-  siteId: number,
-  assetIds: readonly number[],
-  from: Date,
-  to: Date,
-): Promise<(WorkOrderValues & { id: number })[]> {
-  if (assetIds.length === 0) return [];
-  const { rows } = await q.query<WorkOrderValues & { id: number }>(
-    `select ${workOrderColumns}
-     from work_orders
-     where site_id = $1 and asset_id = any($2::int[]) and reported_at < $4 and (completed_at is null or completed_at >= $3)
-     order by wo_number`,
-    [siteId, assetIds, from, to],
-  );
-  return rows;
+export function listWorkOrdersOpenDuring(q: Queryable, siteId: number, assetIds: readonly number[], from: Date, to: Date): Promise<WorkOrderRow[]> {
+  return listOnAssets(q, siteId, assetIds, 'reported_at < $4 and (completed_at is null or completed_at >= $3)', [from, to]);
 }
 
 /**
  * Work orders on the given assets that a reliability or downtime window [from, to) reads: reported in it
  * (failures are placed by reported_at) or out of service during it (downtime, calendar operating time).
  */
-export async function listWorkOrdersReportedOrOutOfServiceIn(
+export function listWorkOrdersReportedOrOutOfServiceIn(
   q: Queryable,
   siteId: number,
   assetIds: readonly number[],
   from: Date,
   to: Date,
-): Promise<(WorkOrderValues & { id: number })[]> {
-  if (assetIds.length === 0) return [];
-  const { rows } = await q.query<WorkOrderValues & { id: number }>(
-    `select ${workOrderColumns}
-     from work_orders
-     where site_id = $1 and asset_id = any($2::int[])
-       and ((reported_at >= $3 and reported_at < $4) or (out_of_service_from < $4 and out_of_service_to > $3))
-     order by wo_number`,
-    [siteId, assetIds, from, to],
-  );
-  return rows;
+): Promise<WorkOrderRow[]> {
+  return listOnAssets(q, siteId, assetIds, '(reported_at >= $3 and reported_at < $4) or (out_of_service_from < $4 and out_of_service_to > $3)', [from, to]);
 }
 
 /** Preventive work orders on the given assets reported before `to`: the candidates for cleanings. */
-export async function listPreventiveWorkOrders(
-  q: Queryable,
-  siteId: number,
-  assetIds: readonly number[],
-  to: Date,
-): Promise<(WorkOrderValues & { id: number })[]> {
-  if (assetIds.length === 0) return [];
-  const { rows } = await q.query<WorkOrderValues & { id: number }>(
-    `select ${workOrderColumns}
-     from work_orders
-     where site_id = $1 and asset_id = any($2::int[]) and type = 'preventive' and reported_at < $3
-     order by wo_number`,
-    [siteId, assetIds, to],
-  );
-  return rows;
+export function listPreventiveWorkOrders(q: Queryable, siteId: number, assetIds: readonly number[], to: Date): Promise<WorkOrderRow[]> {
+  return listOnAssets(q, siteId, assetIds, "type = 'preventive' and reported_at < $3", [to]);
 }
