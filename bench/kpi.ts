@@ -1,15 +1,20 @@
 // KPI benchmark: every /api/kpi/* endpoint on a database of ~20 M samples and 50,000 work orders.
 //   npm run bench:kpi                     (defaults: 4.6 years at 5-minute steps ≈ 20 M samples)
 //   npm run bench:kpi -- --years 1        (a quick run)
+//   DATABASE_URL=… npm run bench:kpi -- --keep          (leave the seeded database on that server)
+//   DATABASE_URL=… npm run bench:kpi -- --reuse <name>  (endpoints only, on a database kept before)
 // For each endpoint: the cold answer time (cache invalidated before each request) against the
 // hand-written SQL aggregate that is the floor for the same question, and p95 latency with 20
 // concurrent clients (autocannon, loopback). Also `refresh` after one more day of samples against a
 // full rebuild. Writes bench/out/kpi.json and prints a table for the README.
-import { mkdirSync, writeFileSync, createWriteStream } from 'node:fs';
+import { mkdirSync, readFileSync, writeFileSync, createWriteStream } from 'node:fs';
 import { join } from 'node:path';
 import autocannon from 'autocannon';
 import { closeDb, createDb } from '#server/db/client.ts';
 import { openBenchDatabase } from './database.ts';
+import { kpiFloors } from './kpi-floors.ts';
+import type { DemoManifest } from '#server/demo/generate.ts';
+import { getSettings } from '#server/services/settings.ts';
 import { migrateDb } from '#server/db/migrate.ts';
 import { seedDemo } from '#server/demo/seed.ts';
 import { seedDemoUsers } from '#server/demo/users.ts';
@@ -27,10 +32,13 @@ const arg = (name: string, fallback: number) => {
 const years = arg('years', 4.6);
 const extraWorkOrders = arg('work-orders', 50_000);
 const seconds = arg('seconds', 10);
+const reuseAt = process.argv.indexOf('--reuse');
+const reuse = reuseAt > 0 ? process.argv[reuseAt + 1] : undefined;
 const log = (s: string) => process.stderr.write(s + '\n');
 
 mkdirSync(out, { recursive: true });
-const bench = await openBenchDatabase('osmia_kpibench', log);
+const demoDir = join(out, 'kpi-demo');
+const bench = await openBenchDatabase('osmia_kpibench', log, { keep: process.argv.includes('--keep'), reuse });
 const url = bench.url;
 const db = createDb(url);
 
@@ -45,10 +53,10 @@ async function time(fn: () => Promise<unknown>, n = 5): Promise<number> {
   return median(ms);
 }
 
-try {
+/** The demo plant over `years`, 50,000 more work orders, a full refresh, then three more days one by one. */
+async function seedAndRefresh(): Promise<{ manifest: DemoManifest; refresh: { fullMs: number; oneDayMs: number; dayTimes: number[] } }> {
   await migrateDb(db);
   await seedDemoUsers(db, 4);
-  const demoDir = join(out, 'kpi-demo');
   const seeded = await seedDemo(db, { outDir: demoDir, years, stepMinutes: 5, log });
   const site = seeded.manifest.site;
 
@@ -72,8 +80,6 @@ try {
   await new Promise<void>((r) => ws.end(r));
   const wo = await runImport(db, { kind: 'work-orders', path: woFile, site: site.code, actor: 'bench' });
   log(`work orders: ${wo.status}, ${wo.rowsInserted} inserted`);
-  const counts = (await db.$client.query<{ samples: number; work_orders: number }>(`select (select count(*) from samples)::int as samples, (select count(*) from work_orders)::int as work_orders`)).rows[0];
-  await db.$client.query('analyze');
 
   // Planner statistics for the fresh 20 M rows (autovacuum would get there later). No VACUUM: refresh
   // summarizes the BRIN ranges imports filled, which is what keeps its range scans short.
@@ -98,10 +104,24 @@ try {
     daySamples = day.rowsInserted;
     dayTimes.push((await refresh(db)).durationMs);
   }
-  const incremental = { durationMs: median(dayTimes) };
   log(`refresh: full ${full.durationMs} ms, one more day (${daySamples} samples) ${dayTimes.join(' / ')} ms`);
+  return { manifest: seeded.manifest, refresh: { fullMs: full.durationMs, oneDayMs: median(dayTimes), dayTimes } };
+}
+
+try {
+  let manifest: DemoManifest;
+  let refreshFigures: { fullMs: number; oneDayMs: number; dayTimes: number[] } | null = null;
+  if (reuse) {
+    manifest = JSON.parse(readFileSync(join(demoDir, 'manifest.json'), 'utf8')) as DemoManifest;
+    log(`reusing ${reuse}: no seeding, no refresh figures`);
+  } else {
+    const seeded = await seedAndRefresh();
+    manifest = seeded.manifest;
+    refreshFigures = seeded.refresh;
+  }
+  const counts = (await db.$client.query<{ samples: number; work_orders: number }>(`select (select count(*) from samples)::int as samples, (select count(*) from work_orders)::int as work_orders`)).rows[0];
   if (process.argv.includes('--refresh-only')) {
-    console.log(JSON.stringify({ samples: counts.samples, refreshFullMs: full.durationMs, refreshOneDayMs: dayTimes }));
+    console.log(JSON.stringify({ samples: counts.samples, refreshFullMs: refreshFigures?.fullMs, refreshOneDayMs: refreshFigures?.dayTimes }));
   } else {
 
   // The server, in this process, on a free port.
@@ -117,43 +137,10 @@ try {
   const invalidate = () =>
     fetch(`${server.url}/api/settings`, { method: 'put', headers: { cookie, 'content-type': 'application/json' }, body: JSON.stringify({ currency: 'EUR' }) });
 
-  const siteId = (await db.$client.query<{ id: number }>(`select id from sites where code = $1`, [site.code])).rows[0].id;
-  // The floor: the one SQL statement someone would write by hand to answer the same question from the
-  // imported data (raw samples, work orders, element and job registers), without Osmia's derived tables.
-  const runningFromSamples = `select s.tag_id, s.ts, s.value, lead(s.ts) over (partition by s.tag_id order by s.ts) as next_ts
-      from samples s join tags t on t.id = s.tag_id
-      where t.site_id = ${siteId} and t.quantity = 'run_status' and (s.quality & 192) = 192`;
-  const floors: Record<string, string> = {
-    // Operating hours of the trains from their run status, failures and restoration hours from work orders.
-    reliability: `with run as (${runningFromSamples} and t.asset_id in (select id from assets where kind = 'train'))
-                  select (select sum(extract(epoch from next_ts - ts)) / 3600 from run where value >= 0.5) as operating_hours,
-                         count(*) filter (where type = 'corrective' and failure_code is not null) as failures,
-                         avg(extract(epoch from out_of_service_to - out_of_service_from) / 3600) filter (where type = 'corrective' and failure_code is not null) as mttr_hours
-                  from work_orders where site_id = ${siteId}`,
-    // Lives by stage: count, events, mean (what SQL can do without a survival fit).
-    'element-life': `select a.parent_id, count(*), count(*) filter (where e.removal_reason in ('failed', 'performance', 'damaged')),
-                       avg(extract(epoch from coalesce(e.removed_at, now()) - e.installed_at) / 86400)
-                     from elements e join assets a on a.id = e.vessel_id where e.site_id = ${siteId} group by a.parent_id`,
-    // Elements in service and their ages by stage.
-    forecast: `select a.parent_id, count(*), avg(extract(epoch from now() - e.installed_at) / 86400) from elements e join assets a on a.id = e.vessel_id
-               where e.site_id = ${siteId} and e.removed_at is null group by a.parent_id`,
-    // Job durations: median and p90 (type 7 = percentile_cont) and mean.
-    'time-to-complete': `select percentile_cont(array[0.5, 0.9]) within group (order by h), avg(h), count(*) from (
-                           select extract(epoch from max(s.completed_at) - min(s.started_at)) / 3600 as h from job_steps s group by s.work_order_id) j`,
-    // Stopped hours and stop count per run-status tag from the raw samples.
-    downtime: `with run as (${runningFromSamples}), edges as (select *, lag(value) over (partition by tag_id order by ts) as prev from run)
-               select tag_id, sum(extract(epoch from next_ts - ts)) filter (where value < 0.5) / 3600 as stopped_hours,
-                      count(*) filter (where value < 0.5 and prev >= 0.5) as stops
-               from edges group by tag_id`,
-    // Daily means of every process tag from the raw samples.
-    performance: `select t.asset_id, t.quantity, date_trunc('day', s.ts), avg(s.value) from samples s join tags t on t.id = s.tag_id
-                  where t.site_id = ${siteId} and t.quantity <> 'run_status' and (s.quality & 192) = 192 group by 1, 2, 3`,
-    // Hours and cost by work-order type, open backlog, and the permeate produced (from raw flow samples).
-    'maintenance-mix': `select type, sum(labour_hours), sum(labour_cost + parts_cost), count(*) filter (where status in ('open', 'in_progress')),
-                          (select sum(s.value) * ${seeded.manifest.historian.stepMinutes} / 60.0 from samples s join tags t on t.id = s.tag_id
-                           where t.site_id = ${siteId} and t.quantity = 'permeate_flow' and (s.quality & 192) = 192)
-                        from work_orders where site_id = ${siteId} group by type`,
-  };
+  const site = (await db.$client.query<{ id: number; time_zone: string }>(`select id, time_zone from sites where code = $1`, [manifest.site.code])).rows[0];
+  const settings = await getSettings(db);
+  // The floor of each question: bench/kpi-floors.ts.
+  const floors = kpiFloors({ siteId: site.id, timeZone: site.time_zone, stepMinutes: manifest.historian.stepMinutes, elementUnitCost: settings.elementUnitCost });
 
   const results = [];
   for (const [name, sql] of Object.entries(floors)) {
@@ -196,9 +183,9 @@ try {
     date: new Date().toISOString(),
     samples: counts.samples,
     workOrders: counts.work_orders,
-    refreshFullMs: full.durationMs,
-    refreshOneDayMs: incremental.durationMs,
-    refreshShare: Math.round((incremental.durationMs / full.durationMs) * 10000) / 100,
+    refreshFullMs: refreshFigures?.fullMs ?? null,
+    refreshOneDayMs: refreshFigures?.oneDayMs ?? null,
+    refreshShare: refreshFigures ? Math.round((refreshFigures.oneDayMs / refreshFigures.fullMs) * 10000) / 100 : null,
     endpoints: results,
   };
   writeFileSync(join(out, 'kpi.json'), JSON.stringify(summary, null, 2) + '\n');
@@ -207,7 +194,9 @@ try {
     `\n${counts.samples.toLocaleString('en-US')} samples, ${counts.work_orders.toLocaleString('en-US')} work orders\n\n` +
       `| endpoint | floor SQL | cold answer | ratio | cached answer | p95, 20 clients |\n|---|---|---|---|---|---|\n` +
       results.map((r) => `| ${r.endpoint} | ${r.floorSqlMs} ms | ${r.coldMs} ms | ${r.ratio} | ${r.warmMs} ms | ${r.p95Ms20Clients} ms |`).join('\n') +
-      `\n\nrefresh: full rebuild ${(full.durationMs / 1000).toFixed(1)} s; after one more day of samples ${(incremental.durationMs / 1000).toFixed(2)} s (${summary.refreshShare} % of full)`,
+      (refreshFigures
+        ? `\n\nrefresh: full rebuild ${(refreshFigures.fullMs / 1000).toFixed(1)} s; after one more day of samples ${(refreshFigures.oneDayMs / 1000).toFixed(2)} s (${summary.refreshShare} % of full)`
+        : ''),
   );
   }
 } finally {

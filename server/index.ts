@@ -26,7 +26,22 @@ export async function startServer(env: Env): Promise<RunningServer> {
     close: async () => {
       await new Promise<void>((resolve) => server.close(() => resolve()));
       server.closeAllConnections();
+      // A client that hung up mid-request leaves its handler running: let the database work in flight
+      // finish (up to 5 s) so it does not meet a closed pool.
+      await poolSettled(db, 5000);
       await closeDb(db);
     },
   };
+}
+
+/** Resolves once no client is checked out of the pool or waited for, twice in a row 25 ms apart, or after `limitMs`. */
+async function poolSettled(db: Db, limitMs: number): Promise<void> {
+  const pool = db.$client;
+  const busy = () => pool.totalCount > pool.idleCount || pool.waitingCount > 0;
+  const until = Date.now() + limitMs;
+  let quiet = 0;
+  while (quiet < 2 && Date.now() < until) {
+    await new Promise((resolve) => setTimeout(resolve, 25));
+    quiet = busy() ? 0 : quiet + 1;
+  }
 }

@@ -163,6 +163,10 @@ export const workOrders = pgTable(
   (t) => [
     uniqueIndex('work_orders_site_number_key').on(t.siteId, t.woNumber),
     index('work_orders_asset_reported_idx').on(t.assetId, t.reportedAt),
+    // A site's work-order extent (the default KPI window, services/scope.ts): min and max read from
+    // the index ends instead of scanning every order.
+    index('work_orders_site_reported_idx').on(t.siteId, t.reportedAt),
+    index('work_orders_site_last_date_idx').on(t.siteId, sql`greatest(reported_at, completed_at, out_of_service_to)`),
     check('work_orders_type_check', oneOf('type', workOrderTypes)),
     check('work_orders_priority_check', oneOf('priority', workOrderPriorities)),
     check('work_orders_status_check', oneOf('status', workOrderStatuses)),

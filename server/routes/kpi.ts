@@ -1,4 +1,5 @@
 import type { Request, Response } from 'express';
+import { dataVersion } from '../db/queries/data-version.ts';
 import type { AppDeps } from '../deps.ts';
 import { kpiCatalog, withPlantDefaults } from '../services/kpi-catalog.ts';
 import { KpiCache, type CachedBody } from '../services/kpi-cache.ts';
@@ -19,9 +20,10 @@ export function kpiRoutes(r: RouteRegistry, { db }: AppDeps) {
   const cache = new KpiCache();
   for (const kpi of kpiCatalog) {
     r.get(`/api/kpi/${kpi.name}`, { access: kpi.access, summary: kpi.summary, query: kpi.query, response: kpi.response }, async (req, res) => {
-      const query = kpi.query.parse(await withPlantDefaults(db, { ...req.query })) as object;
-      const run = await kpi.load();
-      sendCached(req, res, await cache.get(db, kpi.name, query, () => run(db, query as never)));
+      // The plant's defaults and the data version in parallel: two round trips, one wait.
+      const [raw, version, run] = await Promise.all([withPlantDefaults(db, { ...req.query }), dataVersion(db.$client), kpi.load()]);
+      const query = kpi.query.parse(raw) as object;
+      sendCached(req, res, await cache.get(version, kpi.name, query, () => run(db, query as never)));
     });
   }
 }

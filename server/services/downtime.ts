@@ -156,8 +156,7 @@ export type DowntimeAnswer = Omit<DowntimeReport, 'totals' | 'provenance'> & {
  * data at all → an empty window [t, t) at the time of asking, with a note.
  */
 export async function getDowntime(db: Db, query: DowntimeQuery): Promise<DowntimeAnswer> {
-  const scope = await resolveScope(db, query);
-  const settings = await getSettings(db);
+  const [scope, settings] = await Promise.all([resolveScope(db, query), getSettings(db)]);
   const { site, assets, inScope } = scope;
   const base = { site: site.code, currency: settings.currency, waterValuePerM3: settings.waterValuePerM3 };
   if (!scope.from || !scope.to) {

@@ -97,15 +97,16 @@ function fitOf(lives: readonly ElementLifeObservation[], confidence: number): { 
  * month by month. Every answer carries the vessel-work cautions: a replacement opens pressure vessels.
  */
 export async function getForecast(db: Db, query: ForecastQuery): Promise<ForecastAnswer> {
-  const scope = await resolveScope(db, query, ['elements']);
-  const settings = await getSettings(db);
+  const [scope, settings] = await Promise.all([resolveScope(db, query, ['elements']), getSettings(db)]);
   // The service may read the clock; only shared/ may not. Without any data there is no other start.
   const asOf = scope.to ?? new Date();
   const places = vesselPlaces(scope);
   const installs = await listElementInstalls(db.$client, scope.site.id, [...places.keys()], asOf);
   const lives = observeLives(installs, places, query.groupBy, scope.from, asOf);
   const livesByGroup = groupLives(lives, query.groupBy);
-  const pooled = fitOf(lives, query.confidence);
+  // The fit of every life in scope: the 'all' group's own, and what a group without a fit of its own borrows.
+  let pooledFit: ReturnType<typeof fitOf> | undefined;
+  const pooled = () => (pooledFit ??= fitOf(lives, query.confidence));
 
   const periods = forecastMonths(asOf, query.months, scope.site.timeZone);
   const inService = inServiceAt(installs, asOf);
@@ -120,14 +121,14 @@ export async function getForecast(db: Db, query: ForecastQuery): Promise<Forecas
   const keys = [...new Set([...livesByGroup.keys(), ...serviceByGroup.keys()])].sort(compareGroupKeys);
   for (const key of keys) {
     const elements = serviceByGroup.get(key) ?? [];
-    const own = fitOf(livesByGroup.get(key) ?? [], query.confidence);
-    const usePooled = own.result.fit === null && pooled.result.fit !== null && key !== 'all';
-    const chosen = usePooled ? pooled : own;
+    const own = key === 'all' ? pooled() : fitOf(livesByGroup.get(key) ?? [], query.confidence);
+    const usePooled = own.result.fit === null && key !== 'all' && pooled().result.fit !== null;
+    const chosen = usePooled ? pooled() : own;
     if (chosen.result.fit === null) {
       if (elements.length > 0) {
         notes.push(
           `${key}: ${elements.length} element(s) in service are not forecast — no Weibull fit (${own.result.reason}` +
-            `${key === 'all' ? '' : `; pooled: ${pooled.result.reason}`}).`,
+            `${key === 'all' ? '' : `; pooled: ${pooled().result.reason}`}).`,
         );
       }
       continue;

@@ -108,8 +108,7 @@ async function producedVolume(db: Db, scope: KpiScope, from: Date, to: Date): Pr
  * an empty window ending now.
  */
 export async function getMaintenanceMix(db: Db, query: MaintenanceMixQuery): Promise<MaintenanceMixReport> {
-  const scope = await resolveScope(db, query);
-  const settings = await getSettings(db);
+  const [scope, settings] = await Promise.all([resolveScope(db, query), getSettings(db)]);
   const notes: string[] = [];
   // The service may read the clock; only shared/ may not. Without any data there is no other bound.
   const to = scope.to ?? new Date();

@@ -60,7 +60,7 @@ const extentSql: Record<DataSource, string> = {
  * The extent of a site's data of the given kinds. A KPI of the historian and work orders defaults to
  * their range, not to an element register that may go back to commissioning.
  */
-async function dataExtent(db: Db, siteId: number, sources: readonly DataSource[]): Promise<{ from: Date | null; to: Date | null }> {
+export async function dataExtent(db: Db, siteId: number, sources: readonly DataSource[]): Promise<{ from: Date | null; to: Date | null }> {
   const { rows } = await db.$client.query<{ from: Date | null; to: Date | null }>(
     `select min(f) as "from", max(t) as "to" from (${sources.map((s) => extentSql[s]).join(' union all ')}) x(f, t)`,
     [siteId],
@@ -86,13 +86,16 @@ export async function resolveScope(
   sources: readonly DataSource[] = ['samples', 'work-orders'],
 ): Promise<KpiScope> {
   const site = await resolveSiteOnly(db, query.site);
-  const assets = await listAssets(db.$client, site.id);
+  const needExtent = sources.length > 0 && !(query.from && query.to);
+  const [assets, extent] = await Promise.all([
+    listAssets(db.$client, site.id),
+    needExtent ? dataExtent(db, site.id, sources) : { from: null, to: null },
+  ]);
   let asset: AssetRecord | null = null;
   if (query.asset) {
     asset = assets.find((a) => a.code.toLowerCase() === query.asset!.toLowerCase()) ?? null;
     if (!asset) throw notFound('asset-not-found', `No asset "${query.asset}" on site ${site.code}.`);
   }
-  const extent = query.from && query.to ? { from: null, to: null } : await dataExtent(db, site.id, sources);
   const from = query.from ? resolveBound(query.from, site.timeZone) : extent.from;
   const to = query.to ? resolveBound(query.to, site.timeZone) : extent.to;
   if (from && to && from >= to) throw badRequest('invalid-window', `The window is empty: from (${from.toISOString()}) is not before to (${to.toISOString()}).`);

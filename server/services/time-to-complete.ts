@@ -3,11 +3,11 @@
 // shared/kpi/time-to-complete.ts.
 import { TZDate } from '@date-fns/tz';
 import { vesselWorkCautions } from '#shared/cautions.ts';
-import { timeToComplete, type JobInfo, type JobStepRow, type LearningBucket } from '#shared/kpi/time-to-complete.ts';
+import { timeToComplete, type JobInfo, type LearningBucket } from '#shared/kpi/time-to-complete.ts';
 import type { Provenance, TimeToCompleteQuery, TimeToCompleteReport } from '#shared/schemas/kpi.ts';
 import type { Db } from '../db/client.ts';
-import { listJobStepsWithOrders, type JobStepWithOrder } from '../db/queries/job-steps.ts';
-import { resolveScope } from './scope.ts';
+import { listJobSpans, type JobSpanWithOrder } from '../db/queries/job-steps.ts';
+import { dataExtent, resolveScope } from './scope.ts';
 
 /** Work-order numbers listed in provenance at most; `workOrderCount` gives the full number. */
 export const provenanceWorkOrderCap = 1000;
@@ -21,7 +21,7 @@ export const procedureDefinition =
   'much between plants to group on.';
 
 /** The procedure of a work order: see `procedureDefinition`. */
-export function procedureOf(order: Pick<JobStepWithOrder, 'assetKind' | 'type'>): string {
+export function procedureOf(order: Pick<JobSpanWithOrder, 'assetKind' | 'type'>): string {
   if (order.assetKind === 'vessel') return order.type === 'inspection' ? 'vessel inspection' : 'element replacement';
   return `${order.assetKind} ${order.type}`;
 }
@@ -74,44 +74,31 @@ function bucketOut(b: LearningBucket) {
  * The answer carries the vessel-work cautions (DESIGN §9): these jobs open pressure vessels.
  */
 export async function getTimeToComplete(db: Db, query: TimeToCompleteQuery): Promise<TimeToCompleteAnswer> {
-  const scope = await resolveScope(db, query, ['work-orders']);
-  // The default window is "the whole range of the data", but the site's data extent (scope.ts) does
-  // not look at job steps: a still-open work order's steps can come after it. So a bound the query
-  // did not give stays open here, and the answer's window is widened to the jobs found.
-  const rows = await listJobStepsWithOrders(
-    db.$client,
-    scope.site.id,
-    scope.inScope.map((a) => a.id),
-    query.from ? scope.from : null,
-    query.to ? scope.to : null,
-  );
-  const steps: JobStepRow[] = rows.map((r) => ({
-    woNumber: r.woNumber,
-    step: r.step,
-    startedAt: r.startedAt,
-    completedAt: r.completedAt,
-    guided: r.guided,
-    technician: r.technician,
-  }));
-  const info = new Map<string, JobInfo>();
-  for (const r of rows) if (!info.has(r.woNumber)) info.set(r.woNumber, { woNumber: r.woNumber, crew: r.crew, procedure: procedureOf(r) });
-  const starts = new Map<string, number>();
-  for (const r of rows) starts.set(r.woNumber, Math.min(starts.get(r.woNumber) ?? Infinity, r.startedAt.getTime()));
-  const firstStarts = [...starts.values()];
-  let from = scope.from;
-  let to = scope.to;
-  if (firstStarts.length > 0) {
-    const first = Math.min(...firstStarts);
-    const last = Math.max(...firstStarts);
+  // The window is the query's bounds only (no default extent): the site's data extent (scope.ts)
+  // does not look at job steps, and a still-open work order's steps can come after it. So a bound
+  // the query did not give stays open for the search, and the answer's window is the work orders'
+  // extent widened to the jobs found. That extent is read alongside the jobs.
+  const scope = await resolveScope(db, query, []);
+  const [rows, extent] = await Promise.all([
+    listJobSpans(db.$client, scope.site.id, scope.asset ? scope.inScope.map((a) => a.id) : null, scope.from, scope.to),
+    query.from && query.to ? { from: null, to: null } : dataExtent(db, scope.site.id, ['work-orders']),
+  ]);
+  const info = rows.map((r): JobInfo => ({ woNumber: r.woNumber, crew: r.crew, procedure: procedureOf(r) }));
+  let first = Infinity;
+  let last = -Infinity;
+  for (const r of rows) {
+    first = Math.min(first, r.startedAt.getTime());
+    last = Math.max(last, r.startedAt.getTime());
+  }
+  let from = query.from ? scope.from : extent.from;
+  let to = query.to ? scope.to : extent.to;
+  if (rows.length > 0) {
     if (!query.from && (from === null || first < from.getTime())) from = new Date(first);
     // Half-open [from, to): one second past the last start, as the site's data extent does.
     if (!query.to && (to === null || last >= to.getTime())) to = new Date(last + 1000);
   }
-  const periods =
-    firstStarts.length === 0
-      ? []
-      : calendarQuarters(new Date(Math.min(...firstStarts)), new Date(Math.max(...firstStarts)), scope.site.timeZone);
-  const result = timeToComplete({ steps, jobInfo: [...info.values()], periods });
+  const periods = rows.length === 0 ? [] : calendarQuarters(new Date(first), new Date(last), scope.site.timeZone);
+  const result = timeToComplete({ spans: rows, jobInfo: info, periods });
 
   const kinds = query.groupBy;
   const keep = (g: { key: string }) =>

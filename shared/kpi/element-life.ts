@@ -8,7 +8,7 @@ import {
   chiSquareQuantile,
   gammaFunction,
   normalQuantile,
-  bracketedRoot,
+  monotoneRoot,
   type NullReason,
 } from './stats.ts';
 
@@ -207,14 +207,25 @@ export interface WeibullFitOptions {
   interval?: WeibullInterval;
 }
 
-/** The censored Weibull log-likelihood of one data set, as a closure over the data. */
+/**
+ * The censored Weibull log-likelihood of one data set, over logarithms taken once:
+ * with l = ln t − ln η and z = e^{βl},
+ *   ℓ(β, η) = r ln β − rβ ln η + (β − 1) Σ_events ln t − Σ_all z,
+ *   ∂ℓ/∂β = r/β + Σ_events l − Σ z·l,   ∂²ℓ/∂β² = −r/β² − Σ z·l²,   ∂ℓ/∂ln η = β(Σ z − r).
+ * Each evaluation is one pass over the units with one exponential each.
+ */
 interface Likelihood {
   n: number;
   r: number;
-  /** ℓ(β, η) = r ln β − rβ ln η + (β − 1) Σ_events ln t − Σ_all (t/η)^β. */
   logLik(shape: number, scale: number): number;
-  /** ∂ℓ/∂β at fixed η. */
-  shapeScore(shape: number, scale: number): number;
+  /** ℓ and its derivatives in (ln β, ln η), in one pass. */
+  withGradient(shape: number, scale: number): { value: number; dLogShape: number; dLogScale: number };
+  /** ∂ℓ/∂β and ∂²ℓ/∂β² at fixed η (ℓ is strictly concave in β). */
+  shapeScore(shape: number, scale: number): readonly [number, number];
+  /** Σ z, Σ z·l, Σ z·l² at (β, η). */
+  sums(shape: number, scale: number): readonly [number, number, number];
+  /** The MLE of η for a given β: (Σ t^β / r)^{1/β}, on t / max t so t^β cannot overflow. */
+  profileScale(shape: number): number;
 }
 
 interface LifeData {
@@ -237,41 +248,78 @@ function positiveLives(times: readonly number[], events: readonly boolean[]): Li
 }
 
 function makeLikelihood({ times, events }: LifeData): Likelihood {
-  const r = events.filter(Boolean).length;
+  const n = times.length;
+  const lnTMax = Math.log(maxOf(times));
+  /** ln(t / max t) ≤ 0 */
+  const u = Float64Array.from(times, (t) => Math.log(t) - lnTMax);
+  let r = 0;
   let sumLnEvents = 0;
-  times.forEach((t, i) => {
-    if (events[i]) sumLnEvents += Math.log(t);
-  });
+  for (let i = 0; i < n; i++) {
+    if (!events[i]) continue;
+    r += 1;
+    sumLnEvents += u[i]! + lnTMax;
+  }
+  /** Σ z, Σ z·l, Σ z·l² at (β, η). */
+  const sums = (shape: number, scale: number): readonly [number, number, number] => {
+    const a = lnTMax - Math.log(scale);
+    let s0 = 0;
+    let s1 = 0;
+    let s2 = 0;
+    for (let i = 0; i < n; i++) {
+      const l = u[i]! + a;
+      const z = Math.exp(shape * l);
+      // z·l with l = 0 is 0 even if z overflowed elsewhere.
+      if (l !== 0) {
+        const zl = z * l;
+        s1 += zl;
+        s2 += zl * l;
+      }
+      s0 += z;
+    }
+    return [s0, s1, s2];
+  };
+  const value = (shape: number, scale: number, sumZ: number): number => {
+    const lnScale = Math.log(scale);
+    return r * Math.log(shape) - r * shape * lnScale + (shape - 1) * sumLnEvents - sumZ;
+  };
   return {
-    n: times.length,
+    n,
     r,
+    sums,
     logLik(shape, scale) {
-      let sumZ = 0;
-      for (const t of times) sumZ += Math.exp(shape * Math.log(t / scale));
-      return r * Math.log(shape) - r * shape * Math.log(scale) + (shape - 1) * sumLnEvents - sumZ;
+      const a = lnTMax - Math.log(scale);
+      let s0 = 0;
+      for (let i = 0; i < n; i++) s0 += Math.exp(shape * (u[i]! + a));
+      return value(shape, scale, s0);
+    },
+    withGradient(shape, scale) {
+      const [s0, s1] = sums(shape, scale);
+      const sumLEvents = sumLnEvents - r * Math.log(scale);
+      return { value: value(shape, scale, s0), dLogShape: shape * (r / shape + sumLEvents - s1), dLogScale: shape * (s0 - r) };
     },
     shapeScore(shape, scale) {
-      let score = r / shape;
-      for (let i = 0; i < times.length; i++) {
-        const l = Math.log(times[i]! / scale);
-        if (events[i]) score += l;
-        // z·l with z = e^{βl}: for l = 0 the product is 0 even if z overflowed elsewhere.
-        if (l !== 0) score -= Math.exp(shape * l) * l;
-      }
-      return score;
+      const [, s1, s2] = sums(shape, scale);
+      return [r / shape + sumLnEvents - r * Math.log(scale) - s1, -r / (shape * shape) - s2];
+    },
+    profileScale(shape) {
+      let s = 0;
+      for (let i = 0; i < n; i++) s += Math.exp(shape * u[i]!);
+      return Math.exp(lnTMax + Math.log(s / r) / shape);
     },
   };
 }
 
 const MAX_SHAPE = 1e4;
+/** How far from the estimate a likelihood-ratio limit is sought: a factor 10⁶. */
+const LIMIT_RANGE = Math.log(1e6);
 
 /**
  * Two-parameter Weibull fitted by maximum likelihood with right censoring. With r events among n
  * units, the shape β solves the profile score equation
  *   Σ_all t^β ln t / Σ_all t^β − 1/β − (1/r) Σ_events ln t = 0
- * (increasing in β, so its root is unique; solved on a bracket), and the scale is then closed-form,
+ * (increasing in β, so its root is unique), and the scale is then closed-form,
  * η = (Σ_all t^β / r)^{1/β}. Lawless, Statistical Models and Methods for Lifetime Data, ch. 5;
- * NIST/SEMATECH e-Handbook §8.4.1.2.
+ * NIST/SEMATECH e-Handbook §8.4.1.2. Roots are found by safeguarded Newton steps (`monotoneRoot`).
  *
  * Intervals at the given confidence C (default 0.9):
  * - 'likelihood-ratio' (default): {θ : 2(ℓ̂ − ℓ_profile(θ)) ≤ χ²_C(1)} for β and for η separately;
@@ -294,15 +342,15 @@ export function fitWeibull(
   const intervalMethod = options.interval ?? 'likelihood-ratio';
   assertProbability(confidence, 'confidence', { open: true });
   const data = positiveLives(times, events);
+  if (data.times.length === 0) return { fit: null, reason: 'no-data', n: 0, events: 0 };
   const likelihood = makeLikelihood(data);
   const { n, r } = likelihood;
-  if (n === 0) return { fit: null, reason: 'no-data', n, events: r };
   if (r === 0) return { fit: null, reason: 'no-events', n, events: r };
-  const mle = weibullMle(data, r);
+  const mle = weibullMle(data, likelihood);
   if (mle === null) return { fit: null, reason: 'shape-diverges', n, events: r };
   const { shape, scale } = mle;
   const logLik = likelihood.logLik(shape, scale);
-  const covarianceLog = observedCovarianceLog(data.times, r, shape, scale);
+  const covarianceLog = observedCovarianceLog(likelihood, shape, scale);
 
   let shapeLower: number;
   let shapeUpper: number | null;
@@ -318,13 +366,31 @@ export function fitWeibull(
     scaleUpper = scale * Math.exp(z * seScale);
   } else {
     const q = chiSquareQuantile(confidence, 1);
-    const shapeDeviance = (b: number): number =>
-      2 * (logLik - likelihood.logLik(b, profileScale(data.times, r, b))) - q;
-    shapeLower = likelihoodLimit(shapeDeviance, shape, -1) ?? 0;
-    shapeUpper = likelihoodLimit(shapeDeviance, shape, +1);
-    const scaleDeviance = (eta: number): number => 2 * (logLik - profileOverShape(likelihood, eta, shape)) - q;
-    scaleLower = likelihoodLimit(scaleDeviance, scale, -1) ?? 0;
-    scaleUpper = likelihoodLimit(scaleDeviance, scale, +1);
+    // Profile deviance in ln β: η at its MLE for that β. By the envelope theorem its derivative is
+    // −2·∂ℓ/∂ln β there (∂ℓ/∂η = 0 on the profile).
+    const shapeDeviance = (logB: number): readonly [number, number] => {
+      const b = Math.exp(logB);
+      const at = likelihood.withGradient(b, likelihood.profileScale(b));
+      return [2 * (logLik - at.value) - q, -2 * at.dLogShape];
+    };
+    // Profile deviance in ln η: β at its MLE for that η (warm-started from the last one); derivative
+    // −2·∂ℓ/∂ln η = −2β(Σz − r) there.
+    let warmShape = shape;
+    const scaleDeviance = (logEta: number): readonly [number, number] => {
+      const eta = Math.exp(logEta);
+      warmShape = profileShape(likelihood, eta, warmShape);
+      const at = likelihood.withGradient(warmShape, eta);
+      return [2 * (logLik - at.value) - q, -2 * at.dLogScale];
+    };
+    const zq = Math.sqrt(q);
+    const seShape = Math.sqrt(covarianceLog[0][0]);
+    const seScale = Math.sqrt(covarianceLog[1][1]);
+    shapeLower = likelihoodLimit(shapeDeviance, shape, seShape * zq, -1) ?? 0;
+    shapeUpper = likelihoodLimit(shapeDeviance, shape, seShape * zq, +1);
+    warmShape = shape;
+    scaleLower = likelihoodLimit(scaleDeviance, scale, seScale * zq, -1) ?? 0;
+    warmShape = shape;
+    scaleUpper = likelihoodLimit(scaleDeviance, scale, seScale * zq, +1);
   }
   return {
     fit: {
@@ -347,89 +413,90 @@ export function fitWeibull(
 }
 
 /** MLE (β̂, η̂) or null when every event sits at the longest time (no finite root). */
-function weibullMle({ times, events }: LifeData, r: number): WeibullParams | null {
+function weibullMle({ times, events }: LifeData, likelihood: Likelihood): WeibullParams | null {
   const tMax = maxOf(times);
   if (times.every((t, i) => !events[i] || t === tMax)) return null;
-  const lnU = times.map((t) => Math.log(t / tMax)); // ≤ 0, so u^β never overflows
+  const lnU = Float64Array.from(times, (t) => Math.log(t / tMax)); // ≤ 0, so u^β never overflows
   let meanLnEvents = 0;
   lnU.forEach((l, i) => {
-    if (events[i]) meanLnEvents += l / r;
+    if (events[i]) meanLnEvents += l / likelihood.r;
   });
-  const score = (b: number): number => {
+  // Profile score in x = ln β: s1/s0 − 1/β − mean ln u over events; its β-derivative is the weighted
+  // variance of ln u plus 1/β², so it increases.
+  const score = (x: number): readonly [number, number] => {
+    const b = Math.exp(x);
     let s0 = 0;
     let s1 = 0;
+    let s2 = 0;
     for (const l of lnU) {
       const w = Math.exp(b * l);
       s0 += w;
       s1 += w * l;
+      s2 += w * l * l;
     }
-    return s1 / s0 - 1 / b - meanLnEvents;
+    const m = s1 / s0;
+    return [m - 1 / b - meanLnEvents, b * (s2 / s0 - m * m + 1 / (b * b))];
   };
-  let lo = 1;
-  while (score(lo) > 0) lo /= 2;
-  let hi = 1;
-  while (score(hi) < 0) {
-    hi *= 2;
-    if (hi > MAX_SHAPE) return null;
-  }
-  const shape = bracketedRoot(score, lo, hi, 1e-15);
-  return { shape, scale: profileScale(times, r, shape) };
+  const x = monotoneRoot(score, {
+    x0: 0,
+    lo: { at: Math.log(1e-6), known: false },
+    hi: { at: Math.log(MAX_SHAPE), known: false },
+    increasing: true,
+    tolerance: 1e-15,
+  });
+  if (x === null) return null;
+  const shape = Math.exp(x);
+  return { shape, scale: likelihood.profileScale(shape) };
 }
 
-/** η̂(β) = (Σ t^β / r)^{1/β}, computed on t / max t so t^β cannot overflow. */
-function profileScale(times: readonly number[], r: number, shape: number): number {
-  const tMax = maxOf(times);
-  let s = 0;
-  for (const t of times) s += Math.exp(shape * Math.log(t / tMax));
-  return tMax * Math.exp(Math.log(s / r) / shape);
-}
-
-/** max over β of ℓ(β, η) at fixed η (ℓ is concave in β, so the root of ∂ℓ/∂β is the maximum). */
-function profileOverShape(likelihood: Likelihood, scale: number, start: number): number {
-  const score = (logB: number): number => likelihood.shapeScore(Math.exp(logB), scale);
-  // ∂ℓ/∂β → +∞ as β → 0 and turns negative for large β, so both loops end; the caps are a guard.
-  let lo = Math.log(start);
-  let hi = lo;
-  for (let i = 0; i < 200 && score(lo) < 0; i++) lo -= 1;
-  for (let i = 0; i < 200 && score(hi) > 0; i++) hi += 1;
-  const shape = Math.exp(lo === hi ? lo : bracketedRoot(score, lo, hi, 1e-14));
-  return likelihood.logLik(shape, scale);
+/** The β maximizing ℓ(β, η) at fixed η (ℓ is concave in β, so the root of ∂ℓ/∂β), from a warm start. */
+function profileShape(likelihood: Likelihood, scale: number, start: number): number {
+  // In x = ln β: d/dx ∂ℓ/∂β = β ∂²ℓ/∂β² < 0, so the score decreases.
+  const score = (x: number): readonly [number, number] => {
+    const b = Math.exp(x);
+    const [g, h] = likelihood.shapeScore(b, scale);
+    return [g, b * h];
+  };
+  const x0 = Math.log(start);
+  const x = monotoneRoot(score, {
+    x0,
+    lo: { at: x0 - 200, known: false },
+    hi: { at: x0 + 200, known: false },
+    increasing: false,
+    tolerance: 1e-14,
+  });
+  return Math.exp(x ?? x0);
 }
 
 /**
- * Where a deviance function (negative at the estimate, rising away from it) crosses zero, searching
- * on the log scale in `direction` from the estimate; null when it has not crossed within a factor 10⁶.
+ * Where a profile deviance (−χ² at the estimate, rising away from it) crosses zero, on the log
+ * scale in `direction` from the estimate, starting from the Wald guess `guess` (in log units) away;
+ * null when it has not crossed within a factor 10⁶.
  */
-function likelihoodLimit(deviance: (x: number) => number, estimate: number, direction: 1 | -1): number | null {
-  const f = (logX: number): number => deviance(Math.exp(logX));
+function likelihoodLimit(
+  deviance: (logX: number) => readonly [number, number],
+  estimate: number,
+  guess: number,
+  direction: 1 | -1,
+): number | null {
   const start = Math.log(estimate);
-  let inner = start;
-  let outer = start + direction * 0.05;
-  while (!(f(outer) > 0)) {
-    inner = outer;
-    outer = start + 2 * (outer - start);
-    if (Math.abs(outer - start) > Math.log(1e6)) return null;
-  }
-  return Math.exp(bracketedRoot(f, Math.min(inner, outer), Math.max(inner, outer), 1e-13));
+  const far = start + direction * LIMIT_RANGE;
+  const near = { at: start, known: true };
+  const farEnd = { at: far, known: false };
+  const logX = monotoneRoot(deviance, {
+    x0: start + direction * Math.min(Number.isFinite(guess) && guess > 0 ? guess : 0.05, LIMIT_RANGE),
+    lo: direction > 0 ? near : farEnd,
+    hi: direction > 0 ? farEnd : near,
+    increasing: direction > 0,
+    tolerance: 1e-13,
+  });
+  return logX === null ? null : Math.exp(logX);
 }
 
 /** Inverse of the observed information for (ln β, ln η) at the MLE. */
-function observedCovarianceLog(
-  times: readonly number[],
-  r: number,
-  shape: number,
-  scale: number,
-): [[number, number], [number, number]] {
-  let sumZ = 0;
-  let sumZL = 0;
-  let sumZL2 = 0;
-  for (const t of times) {
-    const l = Math.log(t / scale);
-    const z = Math.exp(shape * l);
-    sumZ += z;
-    sumZL += z * l;
-    sumZL2 += z * l * l;
-  }
+function observedCovarianceLog(likelihood: Likelihood, shape: number, scale: number): [[number, number], [number, number]] {
+  const r = likelihood.r;
+  const [sumZ, sumZL, sumZL2] = likelihood.sums(shape, scale);
   // Observed information (minus the Hessian of ℓ) in (β, η).
   const iBB = r / shape ** 2 + sumZL2;
   const iEE = -((r * shape) / scale ** 2 - ((shape * (shape + 1)) / scale ** 2) * sumZ);
@@ -448,7 +515,8 @@ function observedCovarianceLog(
 /**
  * Points on the boundary of the joint likelihood-ratio confidence region of (β, η):
  * {(β, η) : 2(ℓ̂ − ℓ(β, η)) = χ²_C(dof)}, found along `points` rays from the MLE in (ln β, ln η)
- * space (rays spread by the Cholesky factor of `covarianceLog`, so they are even around the region).
+ * space (rays spread by the Cholesky factor of `covarianceLog`, so they are even around the region;
+ * along each the root is sought by Newton steps from √χ², where a quadratic likelihood would cross).
  * dof = 1 gives the region whose extremes are the profile-likelihood interval of any single
  * quantity computed from (β, η) (used for the forecast band); dof = 2 the joint region.
  * A ray that has not closed at 10³ standard deviations stops there (`closed: false`).
@@ -472,32 +540,26 @@ export function weibullConfidenceRegion(
   const l21 = covarianceLog[1][0] / l11;
   const l22 = Math.sqrt(Math.max(covarianceLog[1][1] - l21 * l21, 0));
   const region: Array<WeibullParams & { closed: boolean }> = [];
+  const farthest = 1e3;
   for (let k = 0; k < points; k++) {
     const phi = (2 * Math.PI * k) / points;
-    const u = Math.cos(phi);
-    const v = Math.sin(phi);
-    const at = (rho: number): WeibullParams => ({
-      shape: shape * Math.exp(rho * l11 * u),
-      scale: scale * Math.exp(rho * (l21 * u + l22 * v)),
-    });
-    const deviance = (rho: number): number => {
+    const du = l11 * Math.cos(phi);
+    const dv = l21 * Math.cos(phi) + l22 * Math.sin(phi);
+    const at = (rho: number): WeibullParams => ({ shape: shape * Math.exp(rho * du), scale: scale * Math.exp(rho * dv) });
+    const deviance = (rho: number): readonly [number, number] => {
       const p = at(rho);
-      const value = 2 * (logLik - likelihood.logLik(p.shape, p.scale)) - q;
-      return Number.isNaN(value) ? Infinity : value;
+      const g = likelihood.withGradient(p.shape, p.scale);
+      const value = 2 * (logLik - g.value) - q;
+      return [Number.isNaN(value) ? Infinity : value, -2 * (g.dLogShape * du + g.dLogScale * dv)];
     };
-    let inner = 0;
-    let outer = Math.sqrt(q) / 2;
-    let closed = true;
-    while (!(deviance(outer) > 0)) {
-      inner = outer;
-      outer *= 2;
-      if (outer > 1e3) {
-        closed = false;
-        break;
-      }
-    }
-    const rho = closed ? bracketedRoot(deviance, inner, outer, 1e-12) : inner;
-    region.push({ ...at(rho), closed });
+    const rho = monotoneRoot(deviance, {
+      x0: Math.sqrt(q),
+      lo: { at: 0, known: true },
+      hi: { at: farthest, known: false },
+      increasing: true,
+      tolerance: 1e-12,
+    });
+    region.push({ ...at(rho ?? farthest), closed: rho !== null });
   }
   return region;
 }

@@ -109,10 +109,11 @@ export function forecastReplacements(input: ForecastInput): ForecastResult {
   });
   (input.region ?? []).forEach((p, i) => checkParams(p, `region[${i}]`));
 
-  const central = evaluate(fit, elements, spans, renewal);
+  const ages = logAges(elements, spans);
+  const central = evaluate(fit, elements, spans, ages, renewal);
   const variants =
     input.region && input.region.length > 0
-      ? [central, ...input.region.map((p) => evaluate(p, elements, spans, renewal))]
+      ? [central, ...input.region.map((p) => evaluate(p, elements, spans, ages, renewal))]
       : null;
   const band = (pick: (v: Evaluation) => number): { lower: number | null; upper: number | null } => {
     if (variants === null) return { lower: null, upper: null };
@@ -163,28 +164,69 @@ interface Evaluation {
   firstEventProbability: number[];
 }
 
+/**
+ * ln of each element's age today and at each period's start and end, taken once: every fit evaluated
+ * (the estimate and each region point) then gets H(x) = (x/η)^β as exp(β(ln x − ln η)), one
+ * exponential instead of a power.
+ */
+interface LogAges {
+  /** Per element: ln a, then ln(a + s_k), ln(a + e_k) for each period k. */
+  values: Float64Array;
+  stride: number;
+}
+
+function logAges(elements: readonly ForecastElement[], spans: ReadonlyArray<{ s: number; e: number }>): LogAges {
+  const stride = 1 + 2 * spans.length;
+  const values = new Float64Array(elements.length * stride);
+  elements.forEach((el, i) => {
+    const at = i * stride;
+    values[at] = Math.log(el.ageDays); // −∞ for a new element: H(0) = 0
+    spans.forEach(({ s, e }, k) => {
+      values[at + 1 + 2 * k] = Math.log(el.ageDays + s);
+      values[at + 2 + 2 * k] = Math.log(el.ageDays + e);
+    });
+  });
+  return { values, stride };
+}
+
 function evaluate(
   params: WeibullParams,
   elements: readonly ForecastElement[],
   spans: ReadonlyArray<{ s: number; e: number }>,
+  ages: LogAges,
   renewal: boolean,
 ): Evaluation {
   const H = (x: number): number => (x / params.scale) ** params.shape;
+  const lnScale = Math.log(params.scale);
+  const hOf = (lnX: number): number => Math.exp(params.shape * (lnX - lnScale));
   const counts = spans.map(() => 0);
   const costs = spans.map(() => 0);
-  const firstEventProbability = elements.map((el) => {
-    const hAge = H(el.ageDays);
+  const firstEventProbability = elements.map((el, i) => {
+    const at = i * ages.stride;
+    const hAge = hOf(ages.values[at]!);
     let total = 0;
-    spans.forEach(({ s, e }, k) => {
-      const hStart = H(el.ageDays + s);
-      let p = Math.exp(hAge - hStart) * (0 - Math.expm1(hStart - H(el.ageDays + e)));
+    // Back-to-back periods (the usual calendar months) share a boundary: H there, and the survival
+    // to it, carry over from the period before.
+    let lnEnd = NaN;
+    let hEnd = NaN;
+    let survivalToEnd = NaN;
+    for (let k = 0; k < spans.length; k++) {
+      const lnStart = ages.values[at + 1 + 2 * k]!;
+      const contiguous = lnStart === lnEnd;
+      const hStart = contiguous ? hEnd : hOf(lnStart);
+      const survival = contiguous ? survivalToEnd : Math.exp(hAge - hStart);
+      lnEnd = ages.values[at + 2 + 2 * k]!;
+      hEnd = hOf(lnEnd);
+      const inPeriod = Math.expm1(hStart - hEnd);
+      survivalToEnd = survival * (1 + inPeriod);
+      let p = survival * (0 - inPeriod);
       // A cumulative hazard too large for a double (an element far past its life at an extreme
       // point of the region) gives ∞ − ∞; its limit is an event at once: all that is left, now.
       if (Number.isNaN(p)) p = Math.max(0, 1 - total);
       counts[k]! += p;
       costs[k]! += p * el.replacementCost;
       total += p;
-    });
+    }
     return total;
   });
   if (renewal) {

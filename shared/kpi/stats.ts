@@ -130,37 +130,59 @@ export function sampleSd(values: readonly number[]): Ratio {
   return valueOf(Math.sqrt(ss / (values.length - 1)));
 }
 
+/** A search range end: where it is, and whether the function is known to have the sign of that side there. */
+export interface RootBound {
+  at: number;
+  /** true when f(at) is known to be on that side of zero (the caller evaluated it, or it follows from the maths). */
+  known: boolean;
+}
+
 /**
- * Root of a continuous function on [lo, hi] whose ends have opposite signs (bisection on the
- * bracket, Illinois-style false position to converge fast). Used for monotone score equations.
+ * Root of a monotone function f on [lo, hi] by Newton's method, safeguarded as in Numerical Recipes'
+ * `rtsafe` (Press et al., ch. 9.4 — from memory): every evaluation narrows the bracket to the side it
+ * falls on, and a Newton step that would leave the bracket (or a zero or non-finite derivative)
+ * bisects it instead. An end not `known` is evaluated only when a step reaches it; if f has not
+ * changed sign there, there is no root in the range and the answer is null. `fdf` returns f(x) and
+ * f'(x); `increasing` says which way f runs; lo and hi must be finite. Stops when the step or the bracket is below
+ * tolerance·max(1, |x|). A NaN value counts as "past the root" (an overflow far out in the range).
  */
-export function bracketedRoot(f: (x: number) => number, lo: number, hi: number, tolerance = 1e-13): number {
-  let a = lo;
-  let b = hi;
-  let fa = f(a);
-  let fb = f(b);
-  if (fa === 0) return a;
-  if (fb === 0) return b;
-  if (Math.sign(fa) === Math.sign(fb)) throw new RangeError('bracketedRoot: the bracket does not change sign.');
-  let side = 0;
-  for (let i = 0; i < 300; i++) {
-    let c = (a * fb - b * fa) / (fb - fa);
-    if (!Number.isFinite(c) || c <= Math.min(a, b) || c >= Math.max(a, b)) c = (a + b) / 2;
-    // Every fourth step bisect, so a flat or infinite end cannot stall the false position.
-    if (i % 4 === 3) c = (a + b) / 2;
-    const fc = f(c);
-    if (fc === 0 || Math.abs(b - a) <= tolerance * Math.max(1, Math.abs(c))) return c;
-    if (Math.sign(fc) === Math.sign(fb)) {
-      b = c;
-      fb = fc;
-      if (side === -1) fa /= 2;
-      side = -1;
+export function monotoneRoot(
+  fdf: (x: number) => readonly [number, number],
+  options: { x0: number; lo: RootBound; hi: RootBound; increasing: boolean; tolerance?: number },
+): number | null {
+  const tolerance = options.tolerance ?? 1e-13;
+  const sign = options.increasing ? 1 : -1;
+  // Work on g = sign·f, increasing: g < 0 below the root, g > 0 above it.
+  let lo = options.lo.at;
+  let hi = options.hi.at;
+  let loKnown = options.lo.known;
+  let hiKnown = options.hi.known;
+  let x = Math.min(Math.max(options.x0, lo), hi);
+  for (let i = 0; i < 200; i++) {
+    const [f, df] = fdf(x);
+    const g = Number.isNaN(f) ? Infinity : sign * f;
+    if (g === 0) return x;
+    if (g < 0) {
+      if (x === hi && !hiKnown) return null;
+      lo = x;
+      loKnown = true;
     } else {
-      a = c;
-      fa = fc;
-      if (side === 1) fb /= 2;
-      side = 1;
+      if (x === lo && !loKnown) return null;
+      hi = x;
+      hiKnown = true;
     }
+    const scale = tolerance * Math.max(1, Math.abs(x));
+    if (loKnown && hiKnown && hi - lo <= scale) return x;
+    const newton = x - f / df;
+    let next = newton;
+    if (!Number.isFinite(newton) || newton <= lo || newton >= hi) {
+      if (loKnown && hiKnown) next = (lo + hi) / 2;
+      // Root above x, top end not yet seen: go to it if Newton overshoots it, else halfway there.
+      else if (g < 0) next = newton >= hi ? hi : x + (hi - x) / 2;
+      else next = newton <= lo ? lo : x - (x - lo) / 2;
+    }
+    if (Math.abs(next - x) <= scale) return next;
+    x = next;
   }
-  return (a + b) / 2;
+  return x;
 }

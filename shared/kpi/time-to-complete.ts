@@ -71,8 +71,39 @@ export interface TimeToCompleteResult {
   learningCurve: { byPeriod: LearningBucket[]; bySequence: LearningBucket[] };
 }
 
+/** A job reduced to its span: first step start, last step end, any step guided, how many steps. */
+export interface JobSpan {
+  woNumber: string;
+  startedAt: Date;
+  completedAt: Date;
+  guided: boolean;
+  steps: number;
+}
+
+/** The job spans of a step log, one per work order, in order of first appearance. */
+export function jobSpansOf(steps: readonly JobStepRow[]): JobSpan[] {
+  const spans = new Map<string, JobSpan>();
+  for (const step of steps) {
+    const span = spans.get(step.woNumber);
+    if (!span) {
+      spans.set(step.woNumber, { woNumber: step.woNumber, startedAt: step.startedAt, completedAt: step.completedAt, guided: step.guided, steps: 1 });
+      continue;
+    }
+    // NaN (an invalid Date) sticks, so the job is reported as invalid rather than measured from its valid steps.
+    const start = Math.min(span.startedAt.getTime(), step.startedAt.getTime());
+    const end = Math.max(span.completedAt.getTime(), step.completedAt.getTime());
+    span.startedAt = new Date(start);
+    span.completedAt = new Date(end);
+    span.guided ||= step.guided;
+    span.steps += 1;
+  }
+  return [...spans.values()];
+}
+
 export interface TimeToCompleteInput {
-  steps: readonly JobStepRow[];
+  /** The step log; or `spans`, the jobs already reduced (e.g. by the database's min/max per work order). */
+  steps?: readonly JobStepRow[];
+  spans?: readonly JobSpan[];
   jobInfo?: readonly JobInfo[];
   /** Learning-curve periods (e.g. calendar quarters, bounds worked out in the site's time zone). */
   periods?: ReadonlyArray<{ label: string; start: Date; end: Date }>;
@@ -100,18 +131,12 @@ export function timeToComplete(input: TimeToCompleteInput): TimeToCompleteResult
   const info = new Map<string, JobInfo>();
   for (const row of input.jobInfo ?? []) if (!info.has(row.woNumber)) info.set(row.woNumber, row);
 
-  const byWorkOrder = new Map<string, JobStepRow[]>();
-  for (const step of input.steps) {
-    const list = byWorkOrder.get(step.woNumber);
-    if (list) list.push(step);
-    else byWorkOrder.set(step.woNumber, [step]);
-  }
-
   const jobs: Job[] = [];
   const skipped: TimeToCompleteResult['skipped'] = [];
-  for (const [woNumber, steps] of byWorkOrder) {
-    const start = Math.min(...steps.map((s) => s.startedAt.getTime()));
-    const end = Math.max(...steps.map((s) => s.completedAt.getTime()));
+  for (const span of input.spans ?? jobSpansOf(input.steps ?? [])) {
+    const { woNumber } = span;
+    const start = span.startedAt.getTime();
+    const end = span.completedAt.getTime();
     if (!Number.isFinite(start) || !Number.isFinite(end)) {
       skipped.push({ woNumber, reason: 'invalid-time' });
       continue;
@@ -126,8 +151,8 @@ export function timeToComplete(input: TimeToCompleteInput): TimeToCompleteResult
       startedAt: new Date(start),
       completedAt: new Date(end),
       hours: (end - start) / HOUR_MS,
-      guided: steps.some((s) => s.guided),
-      steps: steps.length,
+      guided: span.guided,
+      steps: span.steps,
       crew: extra?.crew ?? null,
       procedure: extra?.procedure ?? null,
     });

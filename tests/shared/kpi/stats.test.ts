@@ -2,7 +2,7 @@ import { quantileSorted } from 'simple-statistics';
 import { describe, expect, it } from 'vitest';
 
 import {
-  bracketedRoot,
+  monotoneRoot,
   chiSquareQuantile,
   gammaFunction,
   mean,
@@ -146,14 +146,30 @@ describe('ratio', () => {
   });
 });
 
-describe('bracketed root', () => {
-  it('finds √2 as the root of x² − 2 on [0, 2]', () => {
-    expect(bracketedRoot((x) => x * x - 2, 0, 2)).toBeCloseTo(Math.SQRT2, 12);
+describe('monotone root (safeguarded Newton)', () => {
+  const known = (at: number) => ({ at, known: true });
+  const unknown = (at: number) => ({ at, known: false });
+  it('finds √2 as the root of x² − 2 on [0, 2], from either end', () => {
+    const f = (x: number) => [x * x - 2, 2 * x] as const;
+    expect(monotoneRoot(f, { x0: 0, lo: known(0), hi: known(2), increasing: true })).toBeCloseTo(Math.SQRT2, 12);
+    expect(monotoneRoot(f, { x0: 2, lo: known(0), hi: known(2), increasing: true })).toBeCloseTo(Math.SQRT2, 12);
   });
-  it('finds a root next to an infinite end', () => {
-    expect(bracketedRoot((x) => (x > 0.99 ? Infinity : x - 0.25), 0, 1)).toBeCloseTo(0.25, 12);
+  it('follows a decreasing function', () => {
+    // e^{−x} = 0.5 at x = ln 2
+    const f = (x: number) => [Math.exp(-x) - 0.5, -Math.exp(-x)] as const;
+    expect(monotoneRoot(f, { x0: 5, lo: unknown(-10), hi: unknown(10), increasing: false })).toBeCloseTo(Math.LN2, 12);
   });
-  it('refuses a bracket without a sign change', () => {
-    expect(() => bracketedRoot((x) => x * x + 1, -1, 1)).toThrow(RangeError);
+  it('falls back to bisection where Newton steps run away (flat derivative, infinite end)', () => {
+    const f = (x: number) => [x > 0.99 ? Infinity : x - 0.25, x > 0.99 ? NaN : 0] as const;
+    expect(monotoneRoot(f, { x0: 0.9, lo: known(0), hi: known(1), increasing: true })).toBeCloseTo(0.25, 12);
+    // tanh is nearly flat far out: Newton from x = 4 would jump far past the root at 0.5.
+    const g = (x: number) => [Math.tanh(x) - Math.tanh(0.5), 1 - Math.tanh(x) ** 2] as const;
+    expect(monotoneRoot(g, { x0: 4, lo: unknown(-20), hi: unknown(20), increasing: true })).toBeCloseTo(0.5, 12);
+  });
+  it('answers null when the function has not changed sign at an end not known', () => {
+    // x − 5 is still negative at 3
+    const f = (x: number) => [x - 5, 1] as const;
+    expect(monotoneRoot(f, { x0: 1, lo: known(0), hi: unknown(3), increasing: true })).toBeNull();
+    expect(monotoneRoot(f, { x0: 1, lo: known(0), hi: unknown(6), increasing: true })).toBeCloseTo(5, 12);
   });
 });

@@ -1,0 +1,2 @@
+CREATE INDEX "work_orders_site_reported_idx" ON "work_orders" USING btree ("site_id","reported_at");--> statement-breakpoint
+CREATE INDEX "work_orders_site_last_date_idx" ON "work_orders" USING btree ("site_id",greatest(reported_at, completed_at, out_of_service_to));
