@@ -43,6 +43,9 @@ function rankRegressionSql(): string {
     fit as (select shape, exp(-intercept / shape) as scale from line)`;
 }
 
+/** z for a two-sided 90 % interval, the engine's default confidence (normal quantile 0.95). */
+const Z90 = 1.6448536269514722;
+
 function runningFromSamples(c: FloorContext): string {
   return `select s.tag_id, s.ts, s.value, lead(s.ts) over (partition by s.tag_id order by s.ts) as next_ts
       from samples s join tags t on t.id = s.tag_id
@@ -57,7 +60,8 @@ export function kpiFloors(c: FloorContext): Record<string, string> {
                          count(*) filter (where type = 'corrective' and failure_code is not null) as failures,
                          avg(extract(epoch from out_of_service_to - out_of_service_from) / 3600) filter (where type = 'corrective' and failure_code is not null) as mttr_hours
                   from work_orders where site_id = ${c.siteId}`,
-    // Kaplan–Meier survival with Greenwood's variance at every distinct life, and the rank-regression Weibull line.
+    // Kaplan–Meier survival with Greenwood's log-transformed 90 % bounds at every distinct life, and the
+    // rank-regression Weibull line with its B10 and median lives.
     'element-life': `with ${livesSql(c)},
       times as (select t, count(*) filter (where ev) as d, count(*) as m from lives group by t),
       risk as (select t, d, m, sum(m) over (order by t desc) as n_risk from times),
@@ -68,7 +72,9 @@ export function kpiFloors(c: FloorContext): Record<string, string> {
                sum(case when d > 0 and d < n_risk then d::float8 / (n_risk * (n_risk - d)) else 0 end) over w as greenwood
         from risk window w as (order by t)),
       ${rankRegressionSql()}
-      select km.*, fit.shape, fit.scale from km cross join fit order by km.t`,
+      select km.*, km.survival * exp(-${Z90} * sqrt(km.greenwood)) as lower, least(1, km.survival * exp(${Z90} * sqrt(km.greenwood))) as upper,
+             fit.shape, fit.scale, fit.scale * power(-ln(0.9), 1 / fit.shape) as b10, fit.scale * power(ln(2), 1 / fit.shape) as median
+      from km cross join fit order by km.t`,
     // The rank-regression line's expected life-ending events per calendar month for the elements in service.
     forecast: `with ${livesSql(c)},
       ${rankRegressionSql()},
@@ -90,9 +96,10 @@ export function kpiFloors(c: FloorContext): Record<string, string> {
       select k, sum(exp(h_age - h_start) * (1 - exp(h_start - h_end))) as expected,
              sum(exp(h_age - h_start) * (1 - exp(h_start - h_end))) * ${c.elementUnitCost} as cost
       from hazards group by k order by k`,
-    // Job durations (first step start to last step end) by guided, crew and procedure, by quarter and in runs of ten jobs.
+    // Each job's duration (first step start to last step end), and the durations by guided, crew and
+    // procedure, by quarter and in runs of ten jobs.
     'time-to-complete': `with jobs as (
-        select w.id, w.crew, bool_or(s.guided) as guided, min(s.started_at) as first_start,
+        select w.id, w.wo_number, w.crew, bool_or(s.guided) as guided, min(s.started_at) as first_start,
                case when a.kind = 'vessel' then case when w.type = 'inspection' then 'vessel inspection' else 'element replacement' end
                     else a.kind || ' ' || w.type end as procedure,
                extract(epoch from max(s.completed_at) - min(s.started_at)) / 3600 as h
@@ -108,7 +115,10 @@ export function kpiFloors(c: FloorContext): Record<string, string> {
       from kept group by 5
       union all
       select 'run', null, null, null, run::text, count(*), avg(h), array[percentile_cont(0.5) within group (order by h)], null, null, null
-      from kept group by run`,
+      from kept group by run
+      union all
+      select 'job', guided::text, crew, procedure, wo_number, 1, h, null, null, extract(epoch from first_start), null
+      from kept`,
     // Stopped hours and stop count per run-status tag from the raw samples.
     downtime: `with run as (${runningFromSamples(c)}), edges as (select *, lag(value) over (partition by tag_id order by ts) as prev from run)
                select tag_id, sum(extract(epoch from next_ts - ts)) filter (where value < 0.5) / 3600 as stopped_hours,

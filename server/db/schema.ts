@@ -202,6 +202,22 @@ export const jobSteps = pgTable(
   ],
 );
 
+/**
+ * Each job (a work order with steps) reduced to its span: first step start, last step end, any step
+ * guided, step count. Derived from job_steps: written in the same transaction as the steps it sums
+ * (importers/registers.ts), rebuilt whole by `osmia refresh --full`. Time to complete reads it
+ * instead of grouping every step on each request.
+ */
+export const jobSpans = pgTable('job_spans', {
+  workOrderId: integer('work_order_id')
+    .primaryKey()
+    .references(() => workOrders.id, { onDelete: 'cascade' }),
+  firstStart: instant('first_start').notNull(),
+  lastEnd: instant('last_end').notNull(),
+  guided: boolean('guided').notNull(),
+  steps: integer('steps').notNull(),
+});
+
 export const elements = pgTable(
   'elements',
   {

@@ -15,7 +15,7 @@ import { importColumns } from '#shared/schemas/imports.ts';
 import { unitFor } from '#shared/units.ts';
 import { listAssets, setParents, upsertAssets, type AssetRecord } from '../db/queries/assets.ts';
 import { listElementValues, upsertElements, type ElementValues } from '../db/queries/elements.ts';
-import { listJobStepValues, upsertJobSteps, type JobStepValues } from '../db/queries/job-steps.ts';
+import { listJobStepValues, rebuildJobSpans, upsertJobSteps, type JobStepValues } from '../db/queries/job-steps.ts';
 import { listTags, upsertTags } from '../db/queries/tags.ts';
 import { listWorkOrderValues, upsertWorkOrders, type WorkOrderValues } from '../db/queries/work-orders.ts';
 import { columnIndex, rowObject, type KindContext, type KindResult } from './context.ts';
@@ -375,5 +375,6 @@ export async function importJobSteps(ctx: KindContext): Promise<KindResult> {
   const stored = new Map((await listJobStepValues(ctx.client, ctx.site.id)).map((v) => [`${v.workOrderId}#${v.step}`, v]));
   const { changed, inserted, updated, unchanged } = classify(incoming, stored);
   await upsertJobSteps(ctx.client, ctx.importId, changed);
+  await rebuildJobSpans(ctx.client, [...new Set(changed.map((c) => c.workOrderId))]);
   return { rowsRead: read, rowsInserted: inserted, rowsUpdated: updated, rowsUnchanged: unchanged };
 }

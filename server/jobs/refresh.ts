@@ -1,5 +1,6 @@
 import type { Db } from '../db/client.ts';
 import { claimDirtyRanges, markAllDirty, rebuildHourly, rebuildStops, runStatusTags } from '../db/queries/derived.ts';
+import { rebuildJobSpans } from '../db/queries/job-steps.ts';
 import { summarizeNewSamples } from '../db/queries/samples.ts';
 
 export interface RefreshResult {
@@ -7,13 +8,16 @@ export interface RefreshResult {
   tags: number;
   hoursRebuilt: number;
   stopsRebuilt: number;
+  /** Job spans rebuilt from the step log (a full refresh only: imports keep them otherwise). */
+  jobSpansRebuilt: number;
   durationMs: number;
 }
 
 /**
  * Rebuild what is derived from samples (hourly rollups, stop events) for the hours imports touched
  * since the last refresh; with `full`, for all data. One transaction: a crash leaves the claimed
- * ranges queued for the next run, and a second worker skips what the first has claimed.
+ * ranges queued for the next run, and a second worker skips what the first has claimed. A full
+ * refresh also rebuilds the job spans (job_spans), which imports otherwise keep as they go.
  */
 export async function refresh(db: Db, options: { full?: boolean; log?: (line: string) => void } = {}): Promise<RefreshResult> {
   const t0 = Date.now();
@@ -21,6 +25,7 @@ export async function refresh(db: Db, options: { full?: boolean; log?: (line: st
   let tags = 0;
   let hoursRebuilt = 0;
   let stopsRebuilt = 0;
+  let jobSpansRebuilt = 0;
   try {
     // The BRIN ranges imports filled since the last run: summarized first, so the range scans below
     // read only their own blocks (imports leave this to refresh to stay as fast as a plain COPY).
@@ -28,7 +33,10 @@ export async function refresh(db: Db, options: { full?: boolean; log?: (line: st
     await client.query('begin');
     // Grouping a year of samples by tag and hour is one big hash aggregate: give it room.
     await client.query(`set local work_mem = '256MB'`);
-    if (options.full) await markAllDirty(client);
+    if (options.full) {
+      await markAllDirty(client);
+      jobSpansRebuilt = await rebuildJobSpans(client, null);
+    }
     const runTags = await runStatusTags(client);
     const ranges = await claimDirtyRanges(client);
     // Tags imported together share a range: rebuild them in one pass over that range.
@@ -50,7 +58,7 @@ export async function refresh(db: Db, options: { full?: boolean; log?: (line: st
   } finally {
     client.release();
   }
-  const result = { full: Boolean(options.full), tags, hoursRebuilt, stopsRebuilt, durationMs: Date.now() - t0 };
-  options.log?.(`refresh: ${tags} tags, ${hoursRebuilt} hourly rollups, ${stopsRebuilt} stops in ${(result.durationMs / 1000).toFixed(1)} s`);
+  const result = { full: Boolean(options.full), tags, hoursRebuilt, stopsRebuilt, jobSpansRebuilt, durationMs: Date.now() - t0 };
+  options.log?.(`refresh: ${tags} tags, ${hoursRebuilt} hourly rollups, ${stopsRebuilt} stops${options.full ? `, ${jobSpansRebuilt} job spans` : ''} in ${(result.durationMs / 1000).toFixed(1)} s`);
   return result;
 }

@@ -1,14 +1,23 @@
 import type { Request, Response } from 'express';
-import { dataVersion } from '../db/queries/data-version.ts';
+import { dataVersionAndSettings } from '../db/queries/data-version.ts';
 import type { AppDeps } from '../deps.ts';
-import { kpiCatalog, withPlantDefaults } from '../services/kpi-catalog.ts';
-import { KpiCache, type CachedBody } from '../services/kpi-cache.ts';
+import { kpiCatalog, plantDefaults } from '../services/kpi-catalog.ts';
+import { KpiCache, type CacheAnswer } from '../services/kpi-cache.ts';
+import { settingsOf } from '../services/settings.ts';
 import type { RouteRegistry } from './registry.ts';
 
-/** Send a cached answer as is: gzip when the client takes it (the compression middleware then stands aside). */
-function sendCached(req: Request, res: Response, body: CachedBody) {
+/**
+ * Send a cached answer as is: gzip when the client takes it (the compression middleware then stands
+ * aside). Server-Timing says whether it was computed for this request (and how long that took) or
+ * served from the cache.
+ */
+function sendCached(req: Request, res: Response, { body, hit }: CacheAnswer) {
   res.type('application/json');
   res.vary('Accept-Encoding');
+  res.setHeader(
+    'Server-Timing',
+    hit ? 'cache;desc="hit"' : `compute;dur=${body.computeMs.toFixed(1)}, encode;dur=${body.encodeMs.toFixed(1)}`,
+  );
   if (req.acceptsEncodings('gzip') === 'gzip') {
     res.setHeader('Content-Encoding', 'gzip');
     res.send(body.gzip);
@@ -20,9 +29,9 @@ export function kpiRoutes(r: RouteRegistry, { db }: AppDeps) {
   const cache = new KpiCache();
   for (const kpi of kpiCatalog) {
     r.get(`/api/kpi/${kpi.name}`, { access: kpi.access, summary: kpi.summary, query: kpi.query, response: kpi.response }, async (req, res) => {
-      // The plant's defaults and the data version in parallel: two round trips, one wait.
-      const [raw, version, run] = await Promise.all([withPlantDefaults(db, { ...req.query }), dataVersion(db.$client), kpi.load()]);
-      const query = kpi.query.parse(raw) as object;
+      // The data version and the plant's settings (for its default confidence): one round trip.
+      const [{ version, stored }, run] = await Promise.all([dataVersionAndSettings(db.$client), kpi.load()]);
+      const query = kpi.query.parse(plantDefaults({ ...req.query }, settingsOf(stored))) as object;
       sendCached(req, res, await cache.get(version, kpi.name, query, () => run(db, query as never)));
     });
   }

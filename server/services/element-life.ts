@@ -8,6 +8,7 @@ import {
   type WeibullFit,
 } from '#shared/kpi/element-life.ts';
 import { lifeEndingReasons } from '#shared/schemas/enums.ts';
+import type { WindowQuery } from '#shared/schemas/common.ts';
 import type {
   ElementLifeQuery,
   ElementLifeReport,
@@ -17,7 +18,7 @@ import type {
 import type { Db } from '../db/client.ts';
 import type { AssetRecord } from '../db/queries/assets.ts';
 import { listElementInstalls, type ElementInstall } from '../db/queries/elements.ts';
-import { ancestry, resolveScope, type KpiScope } from './scope.ts';
+import { ancestry, queryBounds, resolveSiteOnly, scopeOfSite, type KpiScope } from './scope.ts';
 
 const DAY_MS = 86_400_000;
 
@@ -44,6 +45,26 @@ export interface ElementLifeObservation {
   days: number;
   /** true when the removal reason ends a life (failed, performance, damaged). */
   event: boolean;
+}
+
+/**
+ * The scope of an element question, its vessels and the element installs made before its end. Asked
+ * of a whole site, the installs need only the site, so they are read alongside the assets.
+ */
+export async function elementScope(
+  db: Db,
+  query: WindowQuery,
+): Promise<{ scope: KpiScope; places: Map<number, VesselPlace>; installs: ElementInstall[] }> {
+  const site = await resolveSiteOnly(db, query.site);
+  const bounds = queryBounds(query, site.timeZone);
+  const [scope, siteInstalls] = await Promise.all([
+    scopeOfSite(db, site, query, ['elements']),
+    query.asset ? null : listElementInstalls(db.$client, site.id, null, bounds.to),
+  ]);
+  const places = vesselPlaces(scope);
+  if (scope.to === null) return { scope, places, installs: [] };
+  const installs = siteInstalls ?? (await listElementInstalls(db.$client, site.id, [...places.keys()], scope.to));
+  return { scope, places, installs: installs.filter((e) => places.has(e.vesselId)) };
 }
 
 /** The vessels of the scope (the asset and everything below it, or the site) with their ancestry. */
@@ -235,9 +256,7 @@ export function elementLifeGroup(key: string, lives: readonly ElementLifeObserva
  * `provenanceSerialCap`, `elementCount` gives the full number) and the window used.
  */
 export async function getElementLife(db: Db, query: ElementLifeQuery): Promise<ElementLifeReport> {
-  const scope = await resolveScope(db, query, ['elements']);
-  const places = vesselPlaces(scope);
-  const installs = scope.to === null ? [] : await listElementInstalls(db.$client, scope.site.id, [...places.keys()], scope.to);
+  const { scope, places, installs } = await elementScope(db, query);
   const lives = scope.to === null ? [] : observeLives(installs, places, query.groupBy, scope.from, scope.to);
   const groups = [...groupLives(lives, query.groupBy)].map(([key, list]) => elementLifeGroup(key, list, query.confidence));
   const provenance: Provenance & { elementCount: number } = {

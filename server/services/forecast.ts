@@ -12,16 +12,15 @@ import {
 } from '#shared/kpi/forecast.ts';
 import type { ForecastQuery, ForecastReport, Provenance } from '#shared/schemas/kpi.ts';
 import type { Db } from '../db/client.ts';
-import { listElementInstalls, type ElementInstall } from '../db/queries/elements.ts';
+import type { ElementInstall } from '../db/queries/elements.ts';
 import { getSettings } from './settings.ts';
-import { resolveScope } from './scope.ts';
 import {
   compareGroupKeys,
+  elementScope,
   elementGroupKey,
   groupLives,
   observeLives,
   serialProvenance,
-  vesselPlaces,
   weibullOut,
   type ElementLifeObservation,
 } from './element-life.ts';
@@ -97,11 +96,10 @@ function fitOf(lives: readonly ElementLifeObservation[], confidence: number): { 
  * month by month. Every answer carries the vessel-work cautions: a replacement opens pressure vessels.
  */
 export async function getForecast(db: Db, query: ForecastQuery): Promise<ForecastAnswer> {
-  const [scope, settings] = await Promise.all([resolveScope(db, query, ['elements']), getSettings(db)]);
-  // The service may read the clock; only shared/ may not. Without any data there is no other start.
+  const [{ scope, places, installs }, settings] = await Promise.all([elementScope(db, query), getSettings(db)]);
+  // The service may read the clock; only shared/ may not. Without any data there is no other start
+  // (and no installs).
   const asOf = scope.to ?? new Date();
-  const places = vesselPlaces(scope);
-  const installs = await listElementInstalls(db.$client, scope.site.id, [...places.keys()], asOf);
   const lives = observeLives(installs, places, query.groupBy, scope.from, asOf);
   const livesByGroup = groupLives(lives, query.groupBy);
   // The fit of every life in scope: the 'all' group's own, and what a group without a fit of its own borrows.

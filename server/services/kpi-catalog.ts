@@ -1,6 +1,7 @@
 // The KPIs Osmia answers, in one list: name, who may read it, its query and answer schemas, and the
 // service that computes it. GET /api/kpi/<name> and `osmia kpi <name>` are both built from it.
 import type { ZodType } from 'zod';
+import type { Settings } from '#shared/schemas/settings.ts';
 import { roles, type Role } from '#shared/schemas/enums.ts';
 import {
   elementLifeQuerySchema,
@@ -98,6 +99,15 @@ export const kpiCatalog: KpiEntry[] = [
 
 /** The plant's confidence setting stands in for a query that names none (the schemas' own default is 0.9). */
 export async function withPlantDefaults(db: Db, raw: Record<string, unknown>): Promise<Record<string, unknown>> {
-  if (raw.confidence !== undefined && raw.confidence !== '') return raw;
-  return { ...raw, confidence: (await getSettings(db)).confidence };
+  if (hasConfidence(raw)) return raw;
+  return plantDefaults(raw, await getSettings(db));
+}
+
+/** `withPlantDefaults` with the settings already read. */
+export function plantDefaults(raw: Record<string, unknown>, settings: Pick<Settings, 'confidence'>): Record<string, unknown> {
+  return hasConfidence(raw) ? raw : { ...raw, confidence: settings.confidence };
+}
+
+function hasConfidence(raw: Record<string, unknown>): boolean {
+  return raw.confidence !== undefined && raw.confidence !== '';
 }

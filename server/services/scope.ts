@@ -85,7 +85,24 @@ export async function resolveScope(
   query: WindowQuery,
   sources: readonly DataSource[] = ['samples', 'work-orders'],
 ): Promise<KpiScope> {
-  const site = await resolveSiteOnly(db, query.site);
+  return scopeOfSite(db, await resolveSiteOnly(db, query.site), query, sources);
+}
+
+/** The bounds the query gives, in the site's zone (null where it gives none); refuses an empty window. */
+export function queryBounds(query: WindowQuery, timeZone: string): { from: Date | null; to: Date | null } {
+  const from = query.from ? resolveBound(query.from, timeZone) : null;
+  const to = query.to ? resolveBound(query.to, timeZone) : null;
+  checkWindow(from, to);
+  return { from, to };
+}
+
+function checkWindow(from: Date | null, to: Date | null): void {
+  if (from && to && from >= to) throw badRequest('invalid-window', `The window is empty: from (${from.toISOString()}) is not before to (${to.toISOString()}).`);
+}
+
+/** `resolveScope` for a site already found, so a caller can start site-wide reads alongside it. */
+export async function scopeOfSite(db: Db, site: SiteRow, query: WindowQuery, sources: readonly DataSource[]): Promise<KpiScope> {
+  const given = queryBounds(query, site.timeZone);
   const needExtent = sources.length > 0 && !(query.from && query.to);
   const [assets, extent] = await Promise.all([
     listAssets(db.$client, site.id),
@@ -96,8 +113,8 @@ export async function resolveScope(
     asset = assets.find((a) => a.code.toLowerCase() === query.asset!.toLowerCase()) ?? null;
     if (!asset) throw notFound('asset-not-found', `No asset "${query.asset}" on site ${site.code}.`);
   }
-  const from = query.from ? resolveBound(query.from, site.timeZone) : extent.from;
-  const to = query.to ? resolveBound(query.to, site.timeZone) : extent.to;
-  if (from && to && from >= to) throw badRequest('invalid-window', `The window is empty: from (${from.toISOString()}) is not before to (${to.toISOString()}).`);
+  const from = query.from ? given.from : extent.from;
+  const to = query.to ? given.to : extent.to;
+  checkWindow(from, to);
   return { site, assets, asset, inScope: asset ? subtree(assets, asset) : assets, from, to };
 }

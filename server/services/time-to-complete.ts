@@ -7,7 +7,7 @@ import { timeToComplete, type JobInfo, type LearningBucket } from '#shared/kpi/t
 import type { Provenance, TimeToCompleteQuery, TimeToCompleteReport } from '#shared/schemas/kpi.ts';
 import type { Db } from '../db/client.ts';
 import { listJobSpans, type JobSpanWithOrder } from '../db/queries/job-steps.ts';
-import { dataExtent, resolveScope } from './scope.ts';
+import { dataExtent, queryBounds, resolveSiteOnly, scopeOfSite } from './scope.ts';
 
 /** Work-order numbers listed in provenance at most; `workOrderCount` gives the full number. */
 export const provenanceWorkOrderCap = 1000;
@@ -78,11 +78,16 @@ export async function getTimeToComplete(db: Db, query: TimeToCompleteQuery): Pro
   // does not look at job steps, and a still-open work order's steps can come after it. So a bound
   // the query did not give stays open for the search, and the answer's window is the work orders'
   // extent widened to the jobs found. That extent is read alongside the jobs.
-  const scope = await resolveScope(db, query, []);
-  const [rows, extent] = await Promise.all([
-    listJobSpans(db.$client, scope.site.id, scope.asset ? scope.inScope.map((a) => a.id) : null, scope.from, scope.to),
-    query.from && query.to ? { from: null, to: null } : dataExtent(db, scope.site.id, ['work-orders']),
+  const site = await resolveSiteOnly(db, query.site);
+  const bounds = queryBounds(query, site.timeZone);
+  // Site-wide (no asset asked about), the jobs need only the site: read them, the assets and the
+  // work orders' extent in one wait.
+  const [scope, siteJobs, extent] = await Promise.all([
+    scopeOfSite(db, site, query, []),
+    query.asset ? null : listJobSpans(db.$client, site.id, null, bounds.from, bounds.to),
+    query.from && query.to ? { from: null, to: null } : dataExtent(db, site.id, ['work-orders']),
   ]);
+  const rows = siteJobs ?? (await listJobSpans(db.$client, site.id, scope.inScope.map((a) => a.id), scope.from, scope.to));
   const info = rows.map((r): JobInfo => ({ woNumber: r.woNumber, crew: r.crew, procedure: procedureOf(r) }));
   let first = Infinity;
   let last = -Infinity;

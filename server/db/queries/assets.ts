@@ -15,13 +15,14 @@ export interface AssetRecord {
 }
 
 export async function listAssets(q: Queryable, siteId: number): Promise<AssetRecord[]> {
-  const { rows } = await q.query<AssetRecord>(
-    `select a.id, a.code, a.name, a.kind, a.parent_id as "parentId", p.code as "parentCode",
+  const { rows } = await q.query<AssetRecord>({
+    name: 'assets-of-site',
+    text: `select a.id, a.code, a.name, a.kind, a.parent_id as "parentId", p.code as "parentCode",
             a.rated_permeate_m3h as "ratedPermeateM3h", a.element_capacity as "elementCapacity",
             a.rack_row as "rackRow", a.rack_col as "rackCol"
      from assets a left join assets p on p.id = a.parent_id where a.site_id = $1 order by a.code`,
-    [siteId],
-  );
+    values: [siteId],
+  });
   return rows;
 }
 

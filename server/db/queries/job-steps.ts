@@ -35,6 +35,23 @@ export async function upsertJobSteps(q: Queryable, importId: number | null, rows
   }
 }
 
+/**
+ * Recompute job_spans for the given work orders (null: every job) from their steps: the reduction of
+ * shared/kpi/time-to-complete.ts `jobSpansOf` — min start, max end, any guided, step count — in SQL.
+ * Called in the transaction that changed the steps, so spans never disagree with them.
+ */
+export async function rebuildJobSpans(q: Queryable, workOrderIds: readonly number[] | null): Promise<number> {
+  if (workOrderIds !== null && workOrderIds.length === 0) return 0;
+  await q.query(`delete from job_spans where $1::int[] is null or work_order_id = any($1::int[])`, [workOrderIds]);
+  const { rowCount } = await q.query(
+    `insert into job_spans (work_order_id, first_start, last_end, guided, steps)
+     select work_order_id, min(started_at), max(completed_at), bool_or(guided), count(*)::int from job_steps
+     where $1::int[] is null or work_order_id = any($1::int[]) group by work_order_id`,
+    [workOrderIds],
+  );
+  return rowCount ?? 0;
+}
+
 /** A job (a work order with steps) reduced to its span, with the work-order facts time-to-complete groups by. */
 export interface JobSpanWithOrder {
   woNumber: string;
@@ -51,11 +68,10 @@ export interface JobSpanWithOrder {
 
 /**
  * The jobs on the given assets (null: every asset of the site) whose FIRST step started in
- * [from, to) (a null bound is open), each reduced to its span by the database — min start, max end,
- * any guided, step count: shared/kpi/time-to-complete.ts `jobSpansOf`, in SQL — with the work order's
- * type, crew and asset kind. A job is kept or dropped whole, so its duration is never cut by the
- * window. Times come as epoch milliseconds (a number parses faster than a timestamp text); the
- * statement is prepared, so a dashboard's repeated question is parsed once per connection.
+ * [from, to) (a null bound is open), each reduced to its span (job_spans: `rebuildJobSpans`), with
+ * the work order's type, crew and asset kind. A job is kept or dropped whole, so its duration is
+ * never cut by the window. Times come as epoch milliseconds (a number parses faster than a timestamp
+ * text); the statement is prepared, so a dashboard's repeated question is parsed once per connection.
  */
 export async function listJobSpans(
   q: Queryable,
@@ -67,13 +83,11 @@ export async function listJobSpans(
   if (assetIds !== null && assetIds.length === 0) return [];
   const { rows } = await q.query<Omit<JobSpanWithOrder, 'startedAt' | 'completedAt'> & { startedMs: number; completedMs: number }>({
     name: 'job-spans',
-    text: `select w.wo_number as "woNumber", extract(epoch from min(s.started_at))::float8 * 1000 as "startedMs",
-              extract(epoch from max(s.completed_at))::float8 * 1000 as "completedMs", bool_or(s.guided) as guided,
-              count(*)::int as steps, w.type, w.crew, a.kind as "assetKind"
-       from job_steps s join work_orders w on w.id = s.work_order_id join assets a on a.id = w.asset_id
+    text: `select w.wo_number as "woNumber", extract(epoch from j.first_start)::float8 * 1000 as "startedMs",
+              extract(epoch from j.last_end)::float8 * 1000 as "completedMs", j.guided, j.steps, w.type, w.crew, a.kind as "assetKind"
+       from job_spans j join work_orders w on w.id = j.work_order_id join assets a on a.id = w.asset_id
        where w.site_id = $1 and ($2::int[] is null or w.asset_id = any($2::int[]))
-       group by w.id, a.id
-       having ($3::timestamptz is null or min(s.started_at) >= $3) and ($4::timestamptz is null or min(s.started_at) < $4)`,
+         and ($3::timestamptz is null or j.first_start >= $3) and ($4::timestamptz is null or j.first_start < $4)`,
     values: [siteId, assetIds, from, to],
   });
   return rows.map((r) => ({

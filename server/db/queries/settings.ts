@@ -2,8 +2,9 @@ import { sql } from 'drizzle-orm';
 import type { Db } from '../client.ts';
 import { settings } from '../schema.ts';
 
+/** Read on every KPI request: a prepared statement, not a query built each time. */
 export async function readSettingRows(db: Db): Promise<Record<string, unknown>> {
-  const rows = await db.select({ key: settings.key, value: settings.value }).from(settings);
+  const { rows } = await db.$client.query<{ key: string; value: unknown }>({ name: 'setting-rows', text: 'select key, value from settings' });
   return Object.fromEntries(rows.map((r) => [r.key, r.value]));
 }
 

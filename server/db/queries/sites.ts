@@ -10,11 +10,11 @@ export interface SiteRow {
 const columns = 'id, code, name, time_zone as "timeZone"';
 
 export async function listSites(q: Queryable): Promise<SiteRow[]> {
-  return (await q.query<SiteRow>(`select ${columns} from sites order by code`)).rows;
+  return (await q.query<SiteRow>({ name: 'sites', text: `select ${columns} from sites order by code` })).rows;
 }
 
 export async function findSite(q: Queryable, code: string): Promise<SiteRow | undefined> {
-  return (await q.query<SiteRow>(`select ${columns} from sites where lower(code) = lower($1)`, [code])).rows[0];
+  return (await q.query<SiteRow>({ name: 'site-by-code', text: `select ${columns} from sites where lower(code) = lower($1)`, values: [code] })).rows[0];
 }
 
 export async function insertSite(q: Queryable, site: { code: string; name: string; timeZone: string }): Promise<SiteRow> {

@@ -6,7 +6,7 @@ import type { User } from '#shared/schemas/users.ts';
 
 type UserRow = typeof users.$inferSelect;
 
-const toUser = (row: UserRow): User => ({
+const toUser = (row: Omit<UserRow, 'passwordHash'>): User => ({
   id: row.id,
   email: row.email,
   name: row.name,
@@ -21,9 +21,14 @@ export async function listUsers(db: Db): Promise<User[]> {
   return rows.map(toUser);
 }
 
+/** Every authenticated request asks this: a prepared statement, not a query built each time. */
 export async function findUserById(db: Db, id: number): Promise<User | undefined> {
-  const [row] = await db.select().from(users).where(eq(users.id, id));
-  return row && toUser(row);
+  const { rows } = await db.$client.query<Omit<UserRow, 'passwordHash'>>({
+    name: 'user-by-id',
+    text: `select id, email, name, role, disabled, created_at as "createdAt", last_login_at as "lastLoginAt" from users where id = $1`,
+    values: [id],
+  });
+  return rows[0] && toUser(rows[0]);
 }
 
 export async function findUserWithHash(db: Db, email: string): Promise<(User & { passwordHash: string }) | undefined> {

@@ -75,14 +75,18 @@ describe('benchmark floors answer the engine’s questions', () => {
   }
   const close = (a: number, b: number, tolerance = 1e-9) => Math.abs(a - b) <= tolerance * Math.max(1, Math.abs(b));
 
-  it('element life: the same Kaplan–Meier curve and rank-regression line', async () => {
-    const { rows } = await t.db.$client.query<{ t: number; survival: number; n_risk: number; shape: number; scale: number }>((await floors())['element-life']!);
+  it('element life: the same Kaplan–Meier curve, Greenwood bounds and rank-regression line', async () => {
+    const { rows } = await t.db.$client.query<{ t: number; survival: number; n_risk: number; lower: number; upper: number; shape: number; scale: number }>(
+      (await floors())['element-life']!,
+    );
     const group = (await getElementLife(t.db, elementLifeQuerySchema.parse({}))).groups[0]!;
     expect(rows.length).toBe(group.km.length);
     group.km.forEach((k, i) => {
       expect(close(rows[i]!.t, k.tDays), `t at row ${i}`).toBe(true);
       expect(Number(rows[i]!.n_risk)).toBe(k.nRisk);
       expect(close(rows[i]!.survival, k.survival), `S at row ${i}`).toBe(true);
+      if (k.lower != null) expect(close(rows[i]!.lower, k.lower, 1e-7), `lower at row ${i}`).toBe(true);
+      if (k.upper != null) expect(close(rows[i]!.upper, k.upper, 1e-7), `upper at row ${i}`).toBe(true);
     });
     expect(close(rows[0]!.shape, group.medianRankRegression!.yOnX.shape)).toBe(true);
     expect(close(rows[0]!.scale, group.medianRankRegression!.yOnX.scaleDays)).toBe(true);
@@ -102,7 +106,7 @@ describe('benchmark floors answer the engine’s questions', () => {
     same.periods.forEach((p, k) => expect(close(Number(rows[k]!.expected), p.expectedCount, 1e-6), p.label).toBe(true));
   });
 
-  it('time to complete: the same groups, medians, 90th percentiles and quarterly learning curve', async () => {
+  it('time to complete: the same jobs, groups, medians, 90th percentiles and quarterly learning curve', async () => {
     const { rows } = await t.db.$client.query<{ kind: string; guided: string | null; crew: string | null; procedure: string | null; period: string | null; count: number; percentile_cont: number[] }>(
       (await floors())['time-to-complete']!,
     );
@@ -117,6 +121,8 @@ describe('benchmark floors answer the engine’s questions', () => {
       expect(close(r.percentile_cont[0]!, g.medianHours!), `${g.key} median`).toBe(true);
       expect(close(r.percentile_cont[1]!, g.p90Hours!), `${g.key} p90`).toBe(true);
     }
+    const jobs = rows.filter((r) => r.kind === 'job');
+    expect(jobs.map((j) => j.period).sort()).toEqual(answer.jobs!.map((j) => j.woNumber).sort());
     const quarters = rows.filter((r) => r.kind === 'quarter').sort((a, b) => (a.period! < b.period! ? -1 : 1));
     const byPeriod = answer.learningCurve!.byPeriod.filter((b) => b.n > 0);
     expect(quarters.map((q) => [q.period, Number(q.count)])).toEqual(byPeriod.map((b) => [b.label, b.n]));

@@ -1,6 +1,8 @@
+import { gunzipSync } from 'node:zlib';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { reliabilityReportSchema } from '#shared/schemas/kpi.ts';
+import { KpiCache } from '#server/services/kpi-cache.ts';
 import { createTestApp, type TestApp } from '../../setup/app.ts';
 import { importText, seedPlant } from '../importers/helpers.ts';
 
@@ -22,5 +24,35 @@ describe('KPI answers are cached until the data changes', () => {
     expect(await failures()).toBe(1);
     await importText(t.db, 'work-orders', `${header}\nWO-C2,TR1-HPP,corrective,high,closed,BRG-WEAR,x,2026-01-11 08:00,2026-01-11 09:00,2026-01-11 10:00,,,1,1,1,crew-a\n`);
     expect(await failures()).toBe(2);
+  });
+});
+
+describe('what the cache sends', () => {
+  it('says in Server-Timing whether the answer was computed for this request or found', async () => {
+    await importText(t.db, 'work-orders', `${header}\nWO-C3,TR1-HPP,corrective,high,closed,ORING,x,2026-01-12 08:00,2026-01-12 09:00,2026-01-12 10:00,,,1,1,1,crew-a\n`);
+    const first = await request(t.app).get('/api/kpi/reliability?asset=TR1-HPP').set('Cookie', t.cookies.engineer).expect(200);
+    expect(first.headers['server-timing']).toMatch(/^compute;dur=\d+(\.\d)?, encode;dur=\d+(\.\d)?$/);
+    const second = await request(t.app).get('/api/kpi/reliability?asset=TR1-HPP').set('Cookie', t.cookies.engineer).expect(200);
+    expect(second.headers['server-timing']).toBe('cache;desc="hit"');
+    expect(second.body).toEqual(first.body);
+  });
+
+  it('answers first with a quick gzip, then swaps in a smaller one for later readers', async () => {
+    const cache = new KpiCache();
+    // Repetitive JSON, as KPI answers are: level 6 beats level 1 on it.
+    const value = { points: Array.from({ length: 5000 }, (_, i) => ({ time: `2026-01-01T${String(i % 24).padStart(2, '0')}:00:00Z`, value: i % 97 })) };
+    const first = await cache.get('v1', 'x', {}, async () => value);
+    expect(first.hit).toBe(false);
+    let later = await cache.get('v1', 'x', {}, async () => ({ other: true }));
+    for (let i = 0; i < 50 && later.body.gzip.length === first.body.gzip.length; i++) {
+      await new Promise((r) => setTimeout(r, 20));
+      later = await cache.get('v1', 'x', {}, async () => ({ other: true }));
+    }
+    expect(later.hit).toBe(true);
+    expect(later.body.gzip.length).toBeLessThan(first.body.gzip.length);
+    expect(JSON.parse(gunzipSync(later.body.gzip).toString())).toEqual(value);
+    expect(JSON.parse(gunzipSync(first.body.gzip).toString())).toEqual(value);
+    // A new data version computes again.
+    expect((await cache.get('v2', 'x', {}, async () => value)).hit).toBe(false);
   });
 });

@@ -4,6 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { vesselWorkCautions } from '#shared/cautions.ts';
 import { quantileMethodType7, timeToCompleteQuerySchema, timeToCompleteReportSchema } from '#shared/schemas/kpi.ts';
 import { getTimeToComplete, procedureOf, type TimeToCompleteAnswer } from '#server/services/time-to-complete.ts';
+import { refresh } from '#server/jobs/refresh.ts';
 import { createTestDatabase, type TestDatabase } from '../../setup/db.ts';
 import { importText } from '../importers/helpers.ts';
 
@@ -182,5 +183,22 @@ describe('time to complete', () => {
       ]);
       expect(r.learningCurve).toEqual({ byPeriod: [], bySequence: [] });
     }
+  });
+});
+
+describe('job spans follow the step log', () => {
+  it('a re-imported step with new times changes its job, and a full refresh rebuilds every span from the steps', async () => {
+    const hoursOf = async (wo: string) => (await ttc({ site: 'OPEN' })).jobs!.find((j) => j.woNumber === wo)!.hours;
+    expect(await hoursOf('O-1')).toBeCloseTo(2, 9);
+    // A second step two hours after the first ends: the job now runs 08:00 → 14:00.
+    const step2 = 'wo_number,step,name,started_at,completed_at,guided,technician\nO-1,2,Close vessel,2021-01-03 12:00,2021-01-03 14:00,no,tech-9';
+    expect((await importText(t.db, 'job-steps', step2, { site: 'OPEN', fileName: 'open-steps-2.csv' })).rejects).toEqual([]);
+    expect(await hoursOf('O-1')).toBeCloseTo(6, 9);
+    const before = await ttc({ site: 'TTC' });
+    await t.db.$client.query('delete from job_spans');
+    expect((await ttc({ site: 'TTC' })).jobs).toEqual([]);
+    const result = await refresh(t.db, { full: true });
+    expect(result.jobSpansRebuilt).toBe(10 + 1); // TTC’s ten jobs and OPEN’s one
+    expect(figures(await ttc({ site: 'TTC' }))).toEqual(figures(before));
   });
 });
