@@ -416,24 +416,16 @@ export function fitWeibull(
 function weibullMle({ times, events }: LifeData, likelihood: Likelihood): WeibullParams | null {
   const tMax = maxOf(times);
   if (times.every((t, i) => !events[i] || t === tMax)) return null;
-  const lnU = Float64Array.from(times, (t) => Math.log(t / tMax)); // ≤ 0, so u^β never overflows
-  let meanLnEvents = 0;
-  lnU.forEach((l, i) => {
-    if (events[i]) meanLnEvents += l / likelihood.r;
+  let meanLnEvents = 0; // of ln(t / max t) ≤ 0
+  times.forEach((t, i) => {
+    if (events[i]) meanLnEvents += Math.log(t / tMax) / likelihood.r;
   });
-  // Profile score in x = ln β: s1/s0 − 1/β − mean ln u over events; its β-derivative is the weighted
-  // variance of ln u plus 1/β², so it increases.
+  // Profile score in x = ln β, on u = t / max t (so u^β never overflows): with Σ u^β ln u etc. from
+  // the likelihood's sums at η = max t, s1/s0 − 1/β − mean ln u over events. Its β-derivative is the
+  // weighted variance of ln u plus 1/β², so it increases.
   const score = (x: number): readonly [number, number] => {
     const b = Math.exp(x);
-    let s0 = 0;
-    let s1 = 0;
-    let s2 = 0;
-    for (const l of lnU) {
-      const w = Math.exp(b * l);
-      s0 += w;
-      s1 += w * l;
-      s2 += w * l * l;
-    }
+    const [s0, s1, s2] = likelihood.sums(b, tMax);
     const m = s1 / s0;
     return [m - 1 / b - meanLnEvents, b * (s2 / s0 - m * m + 1 / (b * b))];
   };
