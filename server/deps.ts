@@ -6,4 +6,6 @@ export interface AppDeps {
   db: Db;
   env: Env;
   sessionKey: Uint8Array;
+  /** Registers what to stop when the server closes (background timers); absent in tests that never close. */
+  onClose?: (stop: () => void) => void;
 }

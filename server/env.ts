@@ -22,6 +22,8 @@ export const envSchema = z.object({
   MAIL_FROM: z.string().default('Osmia <osmia@localhost>'),
   CLIENT_DIST: z.string().optional(),
   LOG_REQUESTS: flag,
+  /** How often the server looks for new data to recompute the KPI answers people asked for; 0: never. */
+  KPI_WARM_SECONDS: z.coerce.number().min(0).default(30),
 });
 export type Env = z.infer<typeof envSchema>;
 

@@ -13,7 +13,8 @@ export interface RunningServer {
 /** Listen on env.HOST:env.PORT with API and (when built) the client from one process. */
 export async function startServer(env: Env): Promise<RunningServer> {
   const db = createDb(env.DATABASE_URL);
-  const app = createApp({ db, env, sessionKey: secretKey(env.JWT_SECRET) }, { clientDist: env.CLIENT_DIST });
+  const stops: Array<() => void> = [];
+  const app = createApp({ db, env, sessionKey: secretKey(env.JWT_SECRET), onClose: (stop) => stops.push(stop) }, { clientDist: env.CLIENT_DIST });
   const server: Server = await new Promise((resolve, reject) => {
     const s = app.listen(env.PORT, env.HOST, () => resolve(s));
     s.once('error', reject);
@@ -24,6 +25,7 @@ export async function startServer(env: Env): Promise<RunningServer> {
     url: `http://${env.HOST}:${port}`,
     db,
     close: async () => {
+      for (const stop of stops) stop();
       await new Promise<void>((resolve) => server.close(() => resolve()));
       server.closeAllConnections();
       // A client that hung up mid-request leaves its handler running: let the database work in flight

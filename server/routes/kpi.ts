@@ -3,6 +3,7 @@ import { dataVersionAndSettings } from '../db/queries/data-version.ts';
 import type { AppDeps } from '../deps.ts';
 import { kpiCatalog, plantDefaults } from '../services/kpi-catalog.ts';
 import { KpiCache, type CacheAnswer } from '../services/kpi-cache.ts';
+import { KpiWarmer } from '../services/kpi-warmer.ts';
 import { settingsOf } from '../services/settings.ts';
 import type { RouteRegistry } from './registry.ts';
 
@@ -25,8 +26,12 @@ function sendCached(req: Request, res: Response, { body, hit }: CacheAnswer) {
 }
 
 /** GET /api/kpi/<name>: the same objects `osmia kpi <name> --json` prints (roles in server/services/kpi-catalog.ts). */
-export function kpiRoutes(r: RouteRegistry, { db }: AppDeps) {
+export function kpiRoutes(r: RouteRegistry, { db, env, onClose }: AppDeps) {
   const cache = new KpiCache();
+  if (env.KPI_WARM_SECONDS > 0) {
+    const warmer = new KpiWarmer(db, cache).start(env.KPI_WARM_SECONDS * 1000);
+    onClose?.(() => warmer.stop());
+  }
   for (const kpi of kpiCatalog) {
     r.get(`/api/kpi/${kpi.name}`, { access: kpi.access, summary: kpi.summary, query: kpi.query, response: kpi.response }, async (req, res) => {
       // The data version and the plant's settings (for its default confidence): one round trip.

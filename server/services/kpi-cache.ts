@@ -21,6 +21,9 @@ export interface CacheAnswer {
 interface Entry {
   version: string;
   body: Promise<CachedBody>;
+  /** The question, so it can be asked again when the data changes (kpi-warmer.ts). */
+  name: string;
+  query: object;
 }
 
 /**
@@ -57,7 +60,7 @@ export class KpiCache {
       const fast = json.length <= 256 * 1024 ? gzipSync(json, { level: 1 }) : await gzipAsync(json, { level: 1 });
       return { json, gzip: fast, computeMs: computed - started, encodeMs: performance.now() - computed };
     });
-    const entry: Entry = { version, body };
+    const entry: Entry = { version, body, name, query };
     this.entries.set(key, entry);
     body.then(
       (first) => void this.recompress(key, entry, first),
@@ -65,6 +68,18 @@ export class KpiCache {
     );
     while (this.entries.size > this.maxEntries) this.entries.delete(this.entries.keys().next().value!);
     return { body: await body, hit: false };
+  }
+
+  /**
+   * The questions last answered under a version other than `version`, most recently asked first, at
+   * most `limit`.
+   */
+  staleQuestions(version: string, limit: number): Array<{ name: string; query: object }> {
+    return [...this.entries.values()]
+      .reverse()
+      .filter((e) => e.version !== version)
+      .slice(0, limit)
+      .map(({ name, query }) => ({ name, query }));
   }
 
   /** Swap in the level-6 gzip of an answer, if the entry is still the one cached. */

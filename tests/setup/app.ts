@@ -30,6 +30,8 @@ export async function createTestApp(envOverrides: Record<string, string> = {}, o
     JWT_SECRET: testSecret,
     BCRYPT_COST: '4',
     LOGIN_RATE_LIMIT: '1000',
+    // No background recomputation unless a test asks for it (tests/server/services/kpi-cache.test.ts).
+    KPI_WARM_SECONDS: '0',
     ...envOverrides,
   });
   const app = createApp({ db: database.db, env, sessionKey: secretKey(env.JWT_SECRET) }, { log: () => {}, clientDist: options.clientDist });

@@ -1,8 +1,10 @@
 import { gunzipSync } from 'node:zlib';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { reliabilityReportSchema } from '#shared/schemas/kpi.ts';
+import { reliabilityQuerySchema, reliabilityReportSchema } from '#shared/schemas/kpi.ts';
+import { dataVersionAndSettings } from '#server/db/queries/data-version.ts';
 import { KpiCache } from '#server/services/kpi-cache.ts';
+import { KpiWarmer } from '#server/services/kpi-warmer.ts';
 import { createTestApp, type TestApp } from '../../setup/app.ts';
 import { importText, seedPlant } from '../importers/helpers.ts';
 
@@ -54,5 +56,48 @@ describe('what the cache sends', () => {
     expect(JSON.parse(gunzipSync(first.body.gzip).toString())).toEqual(value);
     // A new data version computes again.
     expect((await cache.get('v2', 'x', {}, async () => value)).hit).toBe(false);
+  });
+});
+
+describe('answers kept ready after the data changes', () => {
+  it('lists the questions of an older version, most recently asked first', async () => {
+    const cache = new KpiCache();
+    await cache.get('v1', 'a', { n: 1 }, async () => 1);
+    await cache.get('v1', 'b', { n: 2 }, async () => 2);
+    await cache.get('v2', 'c', { n: 3 }, async () => 3);
+    await cache.get('v1', 'a', { n: 1 }, async () => 1); // asked again: now the most recent
+    expect(cache.staleQuestions('v2', 10)).toEqual([
+      { name: 'a', query: { n: 1 } },
+      { name: 'b', query: { n: 2 } },
+    ]);
+    expect(cache.staleQuestions('v2', 1)).toHaveLength(1);
+  });
+
+  it('recomputes what was asked once a new version has held for two checks, so the next reader finds it cached', async () => {
+    const w = await createTestApp();
+    try {
+      await seedPlant(w.db);
+      const cache = new KpiCache();
+      const warmer = new KpiWarmer(w.db, cache);
+      const version = async () => (await dataVersionAndSettings(w.db.$client)).version;
+      const ask = async () => cache.get(await version(), 'reliability', reliabilityQuerySchema.parse({ asset: 'TR1-HPP' }), async () => {
+        throw new Error('should have been warmed');
+      });
+      const compute = (await import('#server/services/reliability.ts')).getReliability;
+      const query = reliabilityQuerySchema.parse({ asset: 'TR1-HPP' });
+      await cache.get(await version(), 'reliability', query, () => compute(w.db, query));
+      await warmer.check(); // the version it starts from
+      await importText(w.db, 'work-orders', `${header}\nWO-W1,TR1-HPP,corrective,high,closed,SEAL-LEAK,x,2026-02-10 08:00,2026-02-10 09:00,2026-02-10 10:00,,,1,1,1,crew-a\n`);
+      await warmer.check(); // a new version, seen once: not yet
+      expect(cache.staleQuestions(await version(), 10)).toEqual([{ name: 'reliability', query }]);
+      await warmer.check(); // held: warm
+      expect(cache.staleQuestions(await version(), 10)).toEqual([]);
+      const warmed = await ask();
+      expect(warmed.hit).toBe(true);
+      expect(reliabilityReportSchema.parse(JSON.parse(warmed.body.json.toString())).failures).toBe(1);
+      warmer.stop();
+    } finally {
+      await w.close();
+    }
   });
 });
