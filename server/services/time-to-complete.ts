@@ -74,14 +74,12 @@ function bucketOut(b: LearningBucket) {
  * The answer carries the vessel-work cautions (DESIGN §9): these jobs open pressure vessels.
  */
 export async function getTimeToComplete(db: Db, query: TimeToCompleteQuery): Promise<TimeToCompleteAnswer> {
-  // The window is the query's bounds only (no default extent): the site's data extent (scope.ts)
-  // does not look at job steps, and a still-open work order's steps can come after it. So a bound
-  // the query did not give stays open for the search, and the answer's window is the work orders'
-  // extent widened to the jobs found. That extent is read alongside the jobs.
+  // The jobs are searched within the query's bounds only (no default extent): the site's data extent
+  // does not look at job steps, and a still-open work order's steps can come after it. The answer's
+  // window is the work orders' extent widened to the jobs found. Site-wide (no asset asked about) the
+  // jobs need only the site, so they, the assets and that extent are read in one wait.
   const site = await resolveSiteOnly(db, query.site);
   const bounds = queryBounds(query, site.timeZone);
-  // Site-wide (no asset asked about), the jobs need only the site: read them, the assets and the
-  // work orders' extent in one wait.
   const [scope, siteJobs, extent] = await Promise.all([
     scopeOfSite(db, site, query, []),
     query.asset ? null : listJobSpans(db.$client, site.id, null, bounds.from, bounds.to),
