@@ -5,7 +5,7 @@ import cliProgress from 'cli-progress';
 import { importKinds, type ImportKind } from '#shared/schemas/enums.ts';
 import type { ImportRecord } from '#shared/schemas/imports.ts';
 import { parseColumnMap, readColumnMap, type ColumnMap } from '#server/importers/column-map.ts';
-import { runImport } from '#server/importers/run.ts';
+import { importFile } from '#server/services/imports.ts';
 import { isTerminal } from '../config.ts';
 import { formatJson, formatNumber, formatTable, stdio } from '../output.ts';
 import { action, CliError } from '../run.ts';
@@ -18,6 +18,7 @@ interface ImportFlags {
   column?: string[];
   strict?: boolean;
   dryRun?: boolean;
+  refresh: boolean;
   json?: boolean;
 }
 
@@ -30,8 +31,8 @@ export function importExitCode(records: ImportRecord[]): number {
 
 export function formatImportSummary(records: ImportRecord[]): string {
   const table = formatTable(
-    ['file', 'kind', 'status', 'read', 'inserted', 'updated', 'unchanged', 'rejected', 'seconds'],
-    records.map((r) => [r.file, r.kind, r.status, r.rowsRead, r.rowsInserted, r.rowsUpdated, r.rowsUnchanged, r.rowsRejected, Math.round(r.durationMs / 100) / 10]),
+    ['file', 'kind', 'status', 'read', 'inserted', 'updated', 'unchanged', 'rejected', 'refreshed', 'seconds'],
+    records.map((r) => [r.file, r.kind, r.status, r.rowsRead, r.rowsInserted, r.rowsUpdated, r.rowsUnchanged, r.rowsRejected, r.derivedRefreshed ? 'yes' : 'no', Math.round(r.durationMs / 100) / 10]),
   );
   const details: string[] = [];
   for (const r of records) {
@@ -40,6 +41,11 @@ export function formatImportSummary(records: ImportRecord[]): string {
     if (r.rowsRejected > 10) details.push(`${r.file}: … ${r.rowsRejected - 10} more rejects${r.id ? ` (GET /api/imports/${r.id}/rejects.csv)` : ''}`);
     const dst = [r.notes.dstGapShifted && `${r.notes.dstGapShifted} local times in a daylight-saving gap moved forward`, r.notes.dstRepeatResolved && `${r.notes.dstRepeatResolved} in a repeated hour resolved`].filter(Boolean);
     if (dst.length) details.push(`${r.file}: ${dst.join('; ')}`);
+    if (typeof r.notes.refreshError === 'string') details.push(`${r.file}: imported, but the refresh after it failed (${r.notes.refreshError}): run "bin/osmia refresh".`);
+  }
+  const landed = records.filter((r) => r.status === 'completed' || r.status === 'partial');
+  if (landed.some((r) => !r.derivedRefreshed && r.notes.refreshError === undefined)) {
+    details.push('Derived data (hourly rollups, stop events) not refreshed (--no-refresh): run "bin/osmia refresh" after the last file, before asking for KPIs.');
   }
   return [table, ...details].join('\n');
 }
@@ -73,6 +79,7 @@ export function registerImport(program: Command) {
     .option('--column <their=ours>', 'rename one column (repeatable)', (v: string, acc: string[] = []) => [...acc, v])
     .option('--strict', 'refuse the whole file when any row is rejected')
     .option('--dry-run', 'check everything, keep nothing')
+    .option('--no-refresh', 'leave the hourly rollups and stop events to one `osmia refresh` after a bulk load of many files')
     .option('--json', 'print the import record(s) as JSON')
     .action(
       action(async (kind: string, files: string[], flags: ImportFlags) => {
@@ -91,7 +98,7 @@ export function registerImport(program: Command) {
               : undefined;
             const t0 = Date.now();
             bar?.start(100, 0, { mb: '0', totalMb: '?', rows: 0, rate: 0 });
-            const record = await runImport(db, {
+            const record = await importFile(db, {
               kind: kind as ImportKind,
               path: file,
               site: flags.site,
@@ -99,6 +106,7 @@ export function registerImport(program: Command) {
               columnMap,
               strict: flags.strict,
               dryRun: flags.dryRun,
+              refresh: flags.refresh,
               actor: `cli:${userInfo().username}`,
               onProgress: (p) =>
                 bar?.update(p.totalBytes ? Math.min(100, Math.round((100 * p.bytesRead) / p.totalBytes)) : 0, {

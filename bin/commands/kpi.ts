@@ -1,6 +1,7 @@
 import type { Command } from 'commander';
 import { HttpError } from '#server/errors.ts';
-import { kpiCatalog, withPlantDefaults } from '#server/services/kpi-catalog.ts';
+import { catchUpDerived } from '#server/services/freshness.ts';
+import { answerKpi, kpiCatalog, withPlantDefaults } from '#server/services/kpi-catalog.ts';
 import { formatJson, stdio } from '../output.ts';
 import { action, CliError } from '../run.ts';
 import { withDb } from './db.ts';
@@ -48,13 +49,15 @@ export function registerKpi(program: Command) {
             new CliError(issues.map((i) => `--${String(i.path[0] ?? '')}: ${i.message}`).join('; '), 2);
           const checked = k.query.safeParse(input);
           if (!checked.success) throw usage(checked.error.issues);
-          const [run, format] = await Promise.all([k.load(), formatters[k.name]()]);
+          const format = await formatters[k.name]();
           await withDb(async (db) => {
             const parsed = k.query.safeParse(await withPlantDefaults(db, input));
             if (!parsed.success) throw usage(parsed.error.issues);
-            const report = await run(db, parsed.data as never).catch((err: unknown) => {
+            if (k.readsDerived) await catchUpDerived(db);
+            const report = (await answerKpi(db, k, parsed.data as object).catch((err: unknown) => {
               throw err instanceof HttpError ? new CliError(err.message) : err;
-            });
+            })) as { warnings: string[] };
+            for (const warning of report.warnings) stdio.err(`Warning: ${warning}`);
             stdio.out(flags.json ? formatJson(report) : format(report as never));
           });
         }),

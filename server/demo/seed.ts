@@ -1,11 +1,11 @@
 // The demo plant, imported the way a user imports a plant: generate canonical files, then run each
-// through the importers in order, then refresh what is derived.
+// through the one import path in order, then refresh what is derived once.
 import { join } from 'node:path';
 import type { ImportRecord } from '#shared/schemas/imports.ts';
 import type { Db } from '../db/client.ts';
 import { listSites } from '../db/queries/sites.ts';
-import { runImport } from '../importers/run.ts';
 import { refresh, type RefreshResult } from '../jobs/refresh.ts';
+import { importFile } from '../services/imports.ts';
 import { generateDemoPlant, type DemoManifest, type DemoOptions } from './generate.ts';
 
 export interface SeedResult {
@@ -22,7 +22,9 @@ export async function seedDemo(db: Db, options: DemoOptions & { log?: (line: str
   log(`  ${manifest.historian.rows.toLocaleString('en-US')} historian rows in ${((Date.now() - t0) / 1000).toFixed(1)} s`);
   const records: ImportRecord[] = [];
   for (const file of manifest.files) {
-    const record = await runImport(db, {
+    // A bulk load: one refresh after the last file instead of one after each.
+    const record = await importFile(db, {
+      refresh: false,
       kind: file.kind,
       path: join(options.outDir, file.file),
       site: manifest.site.code,

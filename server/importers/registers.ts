@@ -14,6 +14,7 @@ import {
 import { importColumns } from '#shared/schemas/imports.ts';
 import { unitFor } from '#shared/units.ts';
 import { listAssets, setParents, upsertAssets, type AssetRecord } from '../db/queries/assets.ts';
+import { markTagsDirty } from '../db/queries/derived.ts';
 import { listElementValues, upsertElements, type ElementValues } from '../db/queries/elements.ts';
 import { listJobStepValues, rebuildJobSpans, upsertJobSteps, type JobStepValues } from '../db/queries/job-steps.ts';
 import { listTags, upsertTags } from '../db/queries/tags.ts';
@@ -206,6 +207,19 @@ export async function importTags(ctx: KindContext): Promise<KindResult> {
   );
   const { changed, inserted, updated, unchanged } = classify(incoming, stored);
   await upsertTags(ctx.client, ctx.site.id, changed as never);
+  // A tag that moved to another asset or changed quantity: what refresh derived from it is rebuilt.
+  const remapped = new Set(
+    (changed as { name: string; assetId: number; quantity: string }[])
+      .filter((c) => {
+        const before = stored.get(c.name.toLowerCase());
+        return before !== undefined && (before.assetId !== c.assetId || before.quantity !== c.quantity);
+      })
+      .map((c) => c.name.toLowerCase()),
+  );
+  if (remapped.size > 0) {
+    const ids = (await listTags(ctx.client, ctx.site.id)).filter((t) => remapped.has(t.name.toLowerCase())).map((t) => t.id);
+    await markTagsDirty(ctx.client, ids);
+  }
   return { rowsRead: read, rowsInserted: inserted, rowsUpdated: updated, rowsUnchanged: unchanged };
 }
 

@@ -161,6 +161,7 @@ export async function runImport(db: Db, opts: ImportOptions): Promise<ImportReco
     dryRun: Boolean(opts.dryRun),
     notes: {},
     error: null,
+    derivedRefreshed: false,
     ...partial,
   });
 

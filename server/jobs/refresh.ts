@@ -1,5 +1,6 @@
 import type { Db } from '../db/client.ts';
 import { claimDirtyRanges, markAllDirty, rebuildHourly, rebuildStops, runStatusTags } from '../db/queries/derived.ts';
+import { markImportsRefreshed } from '../db/queries/imports.ts';
 import { rebuildJobSpans } from '../db/queries/job-steps.ts';
 import { summarizeNewSamples } from '../db/queries/samples.ts';
 
@@ -17,7 +18,8 @@ export interface RefreshResult {
  * Rebuild what is derived from samples (hourly rollups, stop events) for the hours imports touched
  * since the last refresh; with `full`, for all data. One transaction: a crash leaves the claimed
  * ranges queued for the next run, and a second worker skips what the first has claimed. A full
- * refresh also rebuilds the job spans (job_spans), which imports otherwise keep as they go.
+ * refresh also rebuilds the job spans (job_spans), which imports otherwise keep as they go. Landed
+ * imports are marked as included in the derived tables (`derivedRefreshed` of the import record).
  */
 export async function refresh(db: Db, options: { full?: boolean; log?: (line: string) => void } = {}): Promise<RefreshResult> {
   const t0 = Date.now();
@@ -38,6 +40,7 @@ export async function refresh(db: Db, options: { full?: boolean; log?: (line: st
       jobSpansRebuilt = await rebuildJobSpans(client, null);
     }
     const runTags = await runStatusTags(client);
+    await markImportsRefreshed(client);
     const ranges = await claimDirtyRanges(client);
     // Tags imported together share a range: rebuild them in one pass over that range.
     const byRange = new Map<string, { from: Date; to: Date; tagIds: number[] }>();

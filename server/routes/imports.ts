@@ -58,7 +58,6 @@ export function importRoutes(r: RouteRegistry, { db, env }: AppDeps) {
           dryRun: fields.dryRun,
           columnMap,
           actor: currentUser(res).email,
-          refreshAfterwards: true,
         });
         res.status(record.status === 'failed' ? 422 : record.id === null ? 200 : 201).json(record);
       } finally {

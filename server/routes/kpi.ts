@@ -1,7 +1,8 @@
 import type { Request, Response } from 'express';
 import { dataVersionAndSettings } from '../db/queries/data-version.ts';
 import type { AppDeps } from '../deps.ts';
-import { kpiCatalog, plantDefaults } from '../services/kpi-catalog.ts';
+import { answerKpi, kpiCatalog, plantDefaults } from '../services/kpi-catalog.ts';
+import { catchUpDerived } from '../services/freshness.ts';
 import { KpiCache, type CacheAnswer } from '../services/kpi-cache.ts';
 import { KpiWarmer } from '../services/kpi-warmer.ts';
 import { settingsOf } from '../services/settings.ts';
@@ -34,10 +35,12 @@ export function kpiRoutes(r: RouteRegistry, { db, env, onClose }: AppDeps) {
   }
   for (const kpi of kpiCatalog) {
     r.get(`/api/kpi/${kpi.name}`, { access: kpi.access, summary: kpi.summary, query: kpi.query, response: kpi.response }, async (req, res) => {
-      // The data version and the plant's settings (for its default confidence): one round trip.
-      const [{ version, stored }, run] = await Promise.all([dataVersionAndSettings(db.$client), kpi.load()]);
-      const query = kpi.query.parse(plantDefaults({ ...req.query }, settingsOf(stored))) as object;
-      sendCached(req, res, await cache.get(version, kpi.name, query, () => run(db, query as never)));
+      // The data version, the plant's settings (for its default confidence) and what waits for refresh: one round trip.
+      let read = await dataVersionAndSettings(db.$client);
+      const query = kpi.query.parse(plantDefaults({ ...req.query }, settingsOf(read.stored))) as object;
+      // A little imported data not yet rolled up is rolled up now, so this answer already counts it.
+      if (kpi.readsDerived && (await catchUpDerived(db, read.lagTagHours))) read = await dataVersionAndSettings(db.$client);
+      sendCached(req, res, await cache.get(read.version, kpi.name, query, () => answerKpi(db, kpi, query)));
     });
   }
 }

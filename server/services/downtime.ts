@@ -2,6 +2,7 @@
 // not, their cause, lost volume and cost, with totals and Pareto tables. Also home of the run-status
 // history that reliability reads too: stop events from `downtime_events` turned into the edge samples the
 // shared calculations take, so no request reads the raw samples table.
+import type { BeforeFreshness } from '#shared/schemas/common.ts';
 import { downtimeReport, type DowntimeAssetInput, type DowntimeWorkOrder } from '#shared/kpi/downtime.ts';
 import type { RunStatusSample } from '#shared/kpi/operating-time.ts';
 import type { WorkOrderStatus, WorkOrderType } from '#shared/schemas/enums.ts';
@@ -9,7 +10,6 @@ import type { Provenance } from '#shared/schemas/kpi.ts';
 import type { DowntimeQuery, DowntimeReport } from '#shared/schemas/kpi-ops.ts';
 import type { Db } from '../db/client.ts';
 import type { AssetRecord } from '../db/queries/assets.ts';
-import { tagsAwaitingRefresh } from '../db/queries/dirty-hours.ts';
 import { lastStopEndsBefore, listStopsOverlapping, type StopRow } from '../db/queries/downtime-events.ts';
 import { coverageExtents } from '../db/queries/sample-coverage.ts';
 import { goodDataExtents } from '../db/queries/sample-hourly.ts';
@@ -80,7 +80,7 @@ export function edgeSamples(
  * (`downtime_events`), the span each import covered (`sample_coverage`) and the good-quality hourly rollups
  * (`sample_hourly`). The data span of a tag is where both agree: from the later of its first covered
  * instant and its first good hour, to the earlier of its last covered instant and its last good sample.
- * Notes name tags without good data and tags whose derived rows wait for `osmia refresh`.
+ * Notes name tags without good data (rows still waiting for refresh are the answer's `warnings`: freshness.ts).
  */
 export async function loadRunStatusHistories(
   db: Db,
@@ -89,18 +89,13 @@ export async function loadRunStatusHistories(
   to: Date,
 ): Promise<{ histories: Map<number, RunStatusHistory>; notes: string[] }> {
   const ids = tags.map((t) => t.id);
-  const [coverage, good, stops, lastEnds, stale] = await Promise.all([
+  const [coverage, good, stops, lastEnds] = await Promise.all([
     coverageExtents(db.$client, ids),
     goodDataExtents(db.$client, ids),
     listStopsOverlapping(db.$client, ids, from, to),
     lastStopEndsBefore(db.$client, ids, from),
-    tagsAwaitingRefresh(db.$client, ids),
   ]);
   const notes: string[] = [];
-  const staleNames = tags.filter((t) => stale.includes(t.id)).map((t) => t.name);
-  if (staleNames.length > 0) {
-    notes.push(`Imported data of ${staleNames.join(', ')} awaits \`osmia refresh\`: stops and operating time may be out of date.`);
-  }
   const histories = new Map<number, RunStatusHistory>();
   for (const tag of tags) {
     const c = coverage.get(tag.id);
@@ -111,7 +106,7 @@ export async function loadRunStatusHistories(
       const dataUntil = c && c.to < g.lastTs ? c.to : g.lastTs;
       if (dataUntil >= dataFrom) data = { from: dataFrom, until: dataUntil };
     }
-    if (!data) notes.push(`${tag.name} has no good-quality run-status data (after \`osmia refresh\`).`);
+    if (!data) notes.push(`${tag.name} has no good-quality run-status data.`);
     const tagStops = stops.filter((s) => s.tagId === tag.id);
     const edges = edgeSamples(tagStops, data, { from, to }, lastEnds.get(tag.id) ?? null);
     histories.set(tag.id, { tag, ...edges, dataFrom: data?.from ?? null, dataUntil: data?.until ?? null, stops: tagStops });
@@ -135,7 +130,7 @@ export function capped<T>(list: T[], what: string, notes: string[]): T[] {
 type DowntimeTotal = DowntimeReport['totals'][number];
 
 /** Downtime report with the asset whose rating gave each total's lost volume. */
-export type DowntimeAnswer = Omit<DowntimeReport, 'totals' | 'provenance'> & {
+export type DowntimeAnswer = Omit<BeforeFreshness<DowntimeReport>, 'totals' | 'provenance'> & {
   totals: (DowntimeTotal & { ratedPermeateFrom: string | null })[];
   provenance: Provenance;
 };
@@ -167,6 +162,7 @@ export async function getDowntime(db: Db, query: DowntimeQuery): Promise<Downtim
       to: at,
       events: [],
       totals: [],
+      plant: { events: 0, hours: 0, plannedHours: 0, unplannedHours: 0, lostVolumeM3: 0, cost: 0 },
       paretoByCause: [],
       paretoByAsset: [],
       notes: [`Site ${site.code} has no data to bound a window: give from and to, or import data first.`],
@@ -258,6 +254,7 @@ export async function getDowntime(db: Db, query: DowntimeQuery): Promise<Downtim
     to: result.to,
     events: result.events,
     totals: result.totals.map((t) => ({ ...t, ratedPermeateFrom: rated.get(codeToId.get(t.asset)!)?.from ?? null })),
+    plant: result.plant,
     paretoByCause: result.paretoByCause,
     paretoByAsset: result.paretoByAsset,
     notes: [...notes, ...result.notes, ...provenanceNotes],

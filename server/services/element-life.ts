@@ -1,5 +1,6 @@
 // Element life: which installs of which vessels, observed over which window, grouped how — then the
 // survival maths of shared/kpi/element-life.ts on plain arrays of lives in days.
+import type { BeforeFreshness } from '#shared/schemas/common.ts';
 import {
   fitWeibull,
   kaplanMeier,
@@ -255,7 +256,7 @@ export function elementLifeGroup(key: string, lives: readonly ElementLifeObserva
  * the longest age → null fit ('shape-diverges'). Never NaN. Provenance: element serials (at most
  * `provenanceSerialCap`, `elementCount` gives the full number) and the window used.
  */
-export async function getElementLife(db: Db, query: ElementLifeQuery): Promise<ElementLifeReport> {
+export async function getElementLife(db: Db, query: ElementLifeQuery): Promise<BeforeFreshness<ElementLifeReport>> {
   const { scope, places, installs } = await elementScope(db, query);
   const lives = scope.to === null ? [] : observeLives(installs, places, query.groupBy, scope.from, scope.to);
   const groups = [...groupLives(lives, query.groupBy)].map(([key, list]) => elementLifeGroup(key, list, query.confidence));

@@ -1,6 +1,7 @@
 // Element replacement forecast: the elements in service at the start, their ages, the Weibull fit of
 // their group (the same lives and window rule as element-life), the next calendar months in the
 // site's time zone — then shared/kpi/forecast.ts.
+import type { BeforeFreshness } from '#shared/schemas/common.ts';
 import { TZDate } from '@date-fns/tz';
 import { vesselWorkCautions } from '#shared/cautions.ts';
 import { fitWeibull, weibullConfidenceRegion, type WeibullFitResult } from '#shared/kpi/element-life.ts';
@@ -39,7 +40,7 @@ export type ForecastMonthOut = ForecastGroup['months'][number] & { partial: bool
 export type ForecastGroupOut = Omit<ForecastGroup, 'months'> & { months: ForecastMonthOut[]; fitSource: 'group' | 'pooled' };
 
 /** The forecast answer plus what the dashboard shows beside it (DESIGN §9) and the shaping notes. */
-export type ForecastAnswer = Omit<ForecastReport, 'groups'> & {
+export type ForecastAnswer = Omit<BeforeFreshness<ForecastReport>, 'groups'> & {
   groups: ForecastGroupOut[];
   /** Elements in service at `asOf` in the scope, forecast or not. */
   inService: number;

@@ -1,6 +1,6 @@
 import type { ImportRecord } from '#shared/schemas/imports.ts';
 import type { Db } from '../db/client.ts';
-import { getImport, listImports, streamRejects, sweepInterruptedImports } from '../db/queries/imports.ts';
+import { addImportDuration, getImport, listImports, noteRefreshFailure, streamRejects, sweepInterruptedImports } from '../db/queries/imports.ts';
 import { notFound } from '../errors.ts';
 import { runImport, type ImportOptions } from '../importers/run.ts';
 import { refresh } from '../jobs/refresh.ts';
@@ -15,10 +15,15 @@ export interface ImportProgress {
 const running = new Map<number, ImportProgress>();
 
 /**
- * Import one file; with `refreshAfterwards`, new historian samples are rolled up at once (the upload
- * page shows them right away; cron runs `osmia refresh` after its imports instead).
+ * Import one file and bring what is derived from it up to date: the one import path of `osmia import`,
+ * POST /api/imports and `osmia seed`. Once the file has landed, the hours it touched are rebuilt
+ * (rollups, stop events: incremental, tens of milliseconds for a day of a plant's samples) before the
+ * record is returned, so a KPI asked right after counts the new data. `refresh: false` leaves that to one
+ * `osmia refresh` after a bulk load of many files; the record's `derivedRefreshed` says which happened.
+ * A refresh that fails does not undo the import: the record keeps `derivedRefreshed: false` with the
+ * reason in `notes.refreshError`, and KPI answers warn until a refresh succeeds.
  */
-export async function importFile(db: Db, opts: ImportOptions & { refreshAfterwards?: boolean }): Promise<ImportRecord> {
+export async function importFile(db: Db, opts: ImportOptions & { refresh?: boolean }): Promise<ImportRecord> {
   let id: number | undefined;
   try {
     const record = await runImport(db, {
@@ -32,8 +37,16 @@ export async function importFile(db: Db, opts: ImportOptions & { refreshAfterwar
         opts.onProgress?.(p);
       },
     });
-    if (opts.refreshAfterwards && record.kind === 'historian' && record.rowsInserted > 0 && !record.dryRun) await refresh(db);
-    return record;
+    const landed = record.id !== null && (record.status === 'completed' || record.status === 'partial');
+    if (!landed || opts.refresh === false) return record;
+    const t0 = Date.now();
+    try {
+      await refresh(db);
+    } catch (err) {
+      await noteRefreshFailure(db.$client, record.id!, (err as Error).message);
+    }
+    await addImportDuration(db.$client, record.id!, Date.now() - t0);
+    return (await getImport(db.$client, record.id!))!;
   } finally {
     if (id !== undefined) running.delete(id);
   }

@@ -22,6 +22,7 @@ import {
   performanceReportSchema,
 } from '#shared/schemas/kpi-ops.ts';
 import type { Db } from '../db/client.ts';
+import { freshnessOf } from './freshness.ts';
 import { getSettings } from './settings.ts';
 
 export type KpiService = (db: Db, query: never) => Promise<unknown>;
@@ -32,6 +33,8 @@ export interface KpiEntry {
   access: readonly Role[];
   query: ZodType;
   response: ZodType;
+  /** Whether it reads the tables derived from samples (hourly rollups, stop events), so its freshness depends on refresh. */
+  readsDerived: boolean;
   /** Loaded on first use, so a CLI command that does not need it starts faster. */
   load: () => Promise<KpiService>;
 }
@@ -45,6 +48,7 @@ export const kpiCatalog: KpiEntry[] = [
     access: operations,
     query: reliabilityQuerySchema,
     response: reliabilityReportSchema,
+    readsDerived: true,
     load: async () => (await import('./reliability.ts')).getReliability,
   },
   {
@@ -53,6 +57,7 @@ export const kpiCatalog: KpiEntry[] = [
     access: roles,
     query: elementLifeQuerySchema,
     response: elementLifeReportSchema,
+    readsDerived: false,
     load: async () => (await import('./element-life.ts')).getElementLife,
   },
   {
@@ -61,6 +66,7 @@ export const kpiCatalog: KpiEntry[] = [
     access: roles,
     query: forecastQuerySchema,
     response: forecastReportSchema,
+    readsDerived: false,
     load: async () => (await import('./forecast.ts')).getForecast,
   },
   {
@@ -69,6 +75,7 @@ export const kpiCatalog: KpiEntry[] = [
     access: operations,
     query: timeToCompleteQuerySchema,
     response: timeToCompleteReportSchema,
+    readsDerived: false,
     load: async () => (await import('./time-to-complete.ts')).getTimeToComplete,
   },
   {
@@ -77,6 +84,7 @@ export const kpiCatalog: KpiEntry[] = [
     access: roles,
     query: downtimeQuerySchema,
     response: downtimeReportSchema,
+    readsDerived: true,
     load: async () => (await import('./downtime.ts')).getDowntime,
   },
   {
@@ -85,6 +93,7 @@ export const kpiCatalog: KpiEntry[] = [
     access: operations,
     query: performanceQuerySchema,
     response: performanceReportSchema,
+    readsDerived: true,
     load: async () => (await import('./performance.ts')).getPerformance,
   },
   {
@@ -93,6 +102,7 @@ export const kpiCatalog: KpiEntry[] = [
     access: roles,
     query: maintenanceMixQuerySchema,
     response: maintenanceMixReportSchema,
+    readsDerived: true,
     load: async () => (await import('./maintenance-mix.ts')).getMaintenanceMix,
   },
 ];
@@ -110,4 +120,15 @@ export function plantDefaults(raw: Record<string, unknown>, settings: Pick<Setti
 
 function hasConfidence(raw: Record<string, unknown>): boolean {
   return raw.confidence !== undefined && raw.confidence !== '';
+}
+
+/**
+ * The answer of one KPI with its freshness (dataAsOf, derivedUpToDate, warnings): what the API, the
+ * CLI and the warmer all serve. `query` is already parsed by the entry's query schema.
+ */
+export async function answerKpi(db: Db, kpi: KpiEntry, query: object): Promise<object> {
+  const run = await kpi.load();
+  const report = (await run(db, query as never)) as { site?: string; to?: string | null; asOf?: string };
+  const freshness = await freshnessOf(db, report.site, report.to ?? report.asOf, kpi.readsDerived);
+  return { ...report, ...freshness };
 }

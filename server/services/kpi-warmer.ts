@@ -1,7 +1,7 @@
 import type { Db } from '../db/client.ts';
 import { dataVersionAndSettings } from '../db/queries/data-version.ts';
 import type { KpiCache } from './kpi-cache.ts';
-import { kpiCatalog } from './kpi-catalog.ts';
+import { answerKpi, kpiCatalog } from './kpi-catalog.ts';
 
 /** At most this many questions are recomputed after a change, the most recently asked first. */
 export const warmQuestionLimit = 20;
@@ -54,8 +54,7 @@ export class KpiWarmer {
         if (this.stopped) return;
         const kpi = kpiCatalog.find((k) => k.name === name);
         if (!kpi) continue;
-        const run = await kpi.load();
-        await this.cache.get(version, name, query, () => run(this.db, query as never));
+        await this.cache.get(version, name, query, () => answerKpi(this.db, kpi, query));
       }
       this.warmed = version;
     } catch {

@@ -1,5 +1,6 @@
 // Maintenance mix: the work orders of the scope and window, the crews' weekly capacity (setting) and
 // the permeate produced (hourly rollups of permeate-flow tags) — then shared/kpi/maintenance-mix.ts.
+import type { BeforeFreshness } from '#shared/schemas/common.ts';
 import { maintenanceMix, type MixWorkOrder } from '#shared/kpi/maintenance-mix.ts';
 import type { WorkOrderStatus, WorkOrderType } from '#shared/schemas/enums.ts';
 import type { Provenance } from '#shared/schemas/kpi.ts';
@@ -107,7 +108,7 @@ async function producedVolume(db: Db, scope: KpiScope, from: Date, to: Date): Pr
  * a zero or unknown denominator is null with a sentence saying why; a site with no data at all gets
  * an empty window ending now.
  */
-export async function getMaintenanceMix(db: Db, query: MaintenanceMixQuery): Promise<MaintenanceMixReport> {
+export async function getMaintenanceMix(db: Db, query: MaintenanceMixQuery): Promise<BeforeFreshness<MaintenanceMixReport>> {
   const [scope, settings] = await Promise.all([resolveScope(db, query), getSettings(db)]);
   const notes: string[] = [];
   // The service may read the clock; only shared/ may not. Without any data there is no other bound.

@@ -1,10 +1,13 @@
 // Performance KPI (DESIGN §6, ASTM D4516): normalized permeate flow, salt passage and differential
 // pressure of each stage, as % change from a baseline, with cleaning alerts and their cautions.
+import type { BeforeFreshness } from '#shared/schemas/common.ts';
 import { TZDate } from '@date-fns/tz';
 import { addDays } from 'date-fns';
 import {
+  elementChangeOuts,
   normalizePerformance,
   stageState,
+  type BaselineReset,
   type PerformancePoint,
   type PerformanceSettings,
 } from '#shared/kpi/performance.ts';
@@ -14,8 +17,8 @@ import { summaryNormalizedKeys, summaryStateKeys, type PerformanceQuery, type Pe
 import type { Settings } from '#shared/schemas/settings.ts';
 import type { Db } from '../db/client.ts';
 import type { AssetRecord } from '../db/queries/assets.ts';
-import { tagsAwaitingRefresh } from '../db/queries/dirty-hours.ts';
 import { listElementInstalls } from '../db/queries/elements.ts';
+import { coverageExtents } from '../db/queries/sample-coverage.ts';
 import { dailyMeansWhileRunning } from '../db/queries/sample-hourly.ts';
 import { listTags, type TagRow } from '../db/queries/tags.ts';
 import { listPreventiveWorkOrders } from '../db/queries/work-orders.ts';
@@ -68,7 +71,7 @@ export type PerformanceStageAnswer = Omit<Stage, 'points'> & {
   reason: string | null;
 };
 
-export type PerformanceAnswer = Omit<PerformanceReport, 'stages'> & {
+export type PerformanceAnswer = Omit<BeforeFreshness<PerformanceReport>, 'stages'> & {
   stages: PerformanceStageAnswer[];
   notes: string[];
   provenance: Provenance;
@@ -119,7 +122,8 @@ export async function getPerformance(db: Db, query: PerformanceQuery): Promise<P
   if (asset && stages.length === 0 && asset.kind !== 'train') {
     throw badRequest('bad-request', `Performance is computed per stage: ${asset.code} is a ${asset.kind}; give a train or a stage.`);
   }
-  const settings = performanceSettingsOf(await getSettings(db), query);
+  const plant = await getSettings(db);
+  const settings = performanceSettingsOf(plant, query);
   const notes: string[] = [];
   const provenance: Provenance = { workOrders: [], tags: [], windows: [], elements: [] };
   const header = { site: site.code, from: scope.from?.toISOString() ?? null, to: scope.to?.toISOString() ?? null };
@@ -162,45 +166,55 @@ export async function getPerformance(db: Db, query: PerformanceQuery): Promise<P
 
     const requiredTags = required.map((q) => byQuantity.get(q)!);
     const concentrate = byQuantity.get('concentrate_flow') ?? null;
-    const rows = await dailyMeansWhileRunning(db.$client, {
-      runTagId: runTag.id,
-      requiredTagIds: requiredTags.map((t) => t.id),
-      optionalTagIds: concentrate ? [concentrate.id] : [],
-      from,
-      to,
-      timeZone: site.timeZone,
-    });
     const quantityOf = new Map(used.map((t) => [t.id, t.quantity]));
-    const days = new Map<number, { point: Partial<PerformancePoint> & { time: Date }; hours: number }>();
-    for (const row of rows) {
-      const day = days.get(row.day.getTime()) ?? days.set(row.day.getTime(), { point: { time: row.day }, hours: 0 }).get(row.day.getTime())!;
-      const quantity = quantityOf.get(row.tagId)!;
-      if (quantity === 'concentrate_flow') day.point.qc = row.mean;
-      else {
-        day.point[requiredQuantities[quantity as RequiredQuantity]] = row.mean;
-        day.hours = Math.max(day.hours, row.hours);
+    /** Daily operating points of the stage over [a, b), with the running hours of each day. */
+    const readPoints = async (a: Date, b: Date) => {
+      const rows = await dailyMeansWhileRunning(db.$client, {
+        runTagId: runTag.id,
+        requiredTagIds: requiredTags.map((t) => t.id),
+        optionalTagIds: concentrate ? [concentrate.id] : [],
+        from: a,
+        to: b,
+        timeZone: site.timeZone,
+      });
+      const days = new Map<number, { point: Partial<PerformancePoint> & { time: Date }; hours: number }>();
+      for (const row of rows) {
+        const day = days.get(row.day.getTime()) ?? days.set(row.day.getTime(), { point: { time: row.day }, hours: 0 }).get(row.day.getTime())!;
+        const quantity = quantityOf.get(row.tagId)!;
+        if (quantity === 'concentrate_flow') day.point.qc = row.mean;
+        else {
+          day.point[requiredQuantities[quantity as RequiredQuantity]] = row.mean;
+          day.hours = Math.max(day.hours, row.hours);
+        }
       }
-    }
-    const points: PerformancePoint[] = [];
-    const hoursOf = new Map<string, number>();
-    for (const { point, hours } of days.values()) {
-      const p = { ...point, qc: point.qc ?? null } as PerformancePoint;
-      try {
-        stageState(p, settings);
-      } catch (err) {
-        stageNotes.push(`${p.time.toISOString()} left out: ${(err as Error).message}.`);
-        continue;
+      const out: { point: PerformancePoint; hours: number }[] = [];
+      for (const { point, hours } of days.values()) {
+        const p = { ...point, qc: point.qc ?? null } as PerformancePoint;
+        try {
+          stageState(p, settings);
+        } catch (err) {
+          stageNotes.push(`The day of ${formatDay(p.time, site.timeZone)} is left out: ${(err as Error).message}.`);
+          continue;
+        }
+        out.push({ point: p, hours });
       }
-      points.push(p);
-      hoursOf.set(p.time.toISOString(), hours);
-    }
-    points.sort((a, b) => a.time.getTime() - b.time.getTime());
+      return out.sort((x, y) => x.point.time.getTime() - y.point.time.getTime());
+    };
+    const inWindow = await readPoints(from, to);
 
-    // Resets: element installs after the first day of data (the initial fill is not a change), and cleanings.
+    // Resets: cleanings, and element change-outs of at least the set share of the stage's positions within
+    // the set number of days. Installs on the first day of the run-status data or before it are the
+    // initial fill, not a change.
     const vessels = subtree(assets, stage).filter((a) => a.kind === 'vessel');
-    const firstDayEnd = points.length > 0 ? addDays(new TZDate(points[0]!.time.getTime(), site.timeZone), 1) : null;
-    const installs = (await listElementInstalls(db.$client, site.id, vessels.map((v) => v.id), to)).filter(
-      (e) => firstDayEnd !== null && e.installedAt.getTime() >= firstDayEnd.getTime(),
+    const dataFrom = (await coverageExtents(db.$client, [runTag.id])).get(runTag.id)?.from ?? null;
+    const firstDayEnd = dataFrom ? addDays(new TZDate(dataFrom.getTime(), site.timeZone), 1) : null;
+    const allInstalls = await listElementInstalls(db.$client, site.id, vessels.map((v) => v.id), to);
+    const installs = allInstalls.filter((e) => firstDayEnd !== null && e.installedAt.getTime() >= firstDayEnd.getTime());
+    const positions = vessels.reduce((n, v) => n + (v.elementCapacity ?? 0), 0) || new Set(allInstalls.map((e) => `${e.vesselId}:${e.position}`)).size;
+    const changeOuts = elementChangeOuts(
+      installs.map((e) => e.installedAt),
+      positions,
+      { sharePct: plant.baselineChangeOutSharePct, days: plant.baselineChangeOutDays },
     );
     const train = line.find((a) => a.kind === 'train') ?? null;
     const cleanings = (await listPreventiveWorkOrders(db.$client, site.id, [stage.id, ...(train ? [train.id] : [])], to))
@@ -209,16 +223,35 @@ export async function getPerformance(db: Db, query: PerformanceQuery): Promise<P
         const at = wo.outOfServiceTo ?? wo.completedAt;
         return at && at < to ? [{ wo, at }] : [];
       });
-    const resetTimes = [...installs.map((e) => e.installedAt), ...cleanings.map((c) => c.at)].sort((a, b) => a.getTime() - b.getTime());
-    provenance.elements!.push(...installs.map((e) => e.serial));
+    const resets: BaselineReset[] = [
+      ...cleanings.map((c) => ({ at: c.at, kind: 'cleaning' as const, workOrder: c.wo.woNumber, elements: null })),
+      ...changeOuts.map((c) => ({ at: c.at, kind: 'element-change-out' as const, workOrder: null, elements: c.elements })),
+    ].sort((a, b) => a.at.getTime() - b.at.getTime());
+    const resetTimes = resets.map((r) => r.at);
+    provenance.elements!.push(...installs.filter((e) => changeOuts.some((c) => e.installedAt >= c.from && e.installedAt <= c.at)).map((e) => e.serial));
     provenance.workOrders.push(...cleanings.map((c) => c.wo.woNumber));
 
-    const result = normalizePerformance(points, { resetTimes, settings });
+    // The baseline may lie before the window (the first running day after the last reset, or of the data,
+    // that came before `from`): its day is read from the 30 days after that anchor and goes first.
+    const anchor = [...resetTimes].reverse().find((r) => r < from) ?? (dataFrom && dataFrom < from ? dataFrom : null);
+    const before = anchor && !resetTimes.some((r) => r >= from && r < (inWindow[0]?.point.time ?? to))
+      ? (await readPoints(anchor, new Date(Math.min(from.getTime(), addDays(anchor, 30).getTime())))).filter((p) => p.point.time >= anchor).slice(0, 1)
+      : [];
+    const points = [...before, ...inWindow].map((p) => p.point);
+    const hoursOf = new Map([...before, ...inWindow].map((p) => [p.point.time.toISOString(), p.hours]));
+
+    const result = normalizePerformance(points, { resets, settings });
+    // The baseline day read from before the window is the reference, not a point of the window.
+    const shown = before.length > 0 ? result.points.slice(1) : result.points;
+    const baseline = result.baseline && {
+      ...result.baseline,
+      index: Math.max(0, result.baseline.index - before.length),
+    };
     answers.push({
       asset: stage.code,
       train: train?.code ?? null,
-      baseline: result.baseline,
-      points: result.points.map((p) => ({
+      baseline,
+      points: shown.map((p) => ({
         ...(query.detail === 'full' ? p : { state: pick(p.state, summaryStateKeys), normalized: pick(p.normalized, summaryNormalizedKeys) }),
         runningHours: hoursOf.get(p.state.time) ?? 0,
       })),
@@ -239,12 +272,14 @@ export async function getPerformance(db: Db, query: PerformanceQuery): Promise<P
   }
   const provenanceNotes: string[] = [];
   provenance.tags = [...new Set(provenance.tags)];
-  const usedIds = [...tagsByAsset.values()].flat().filter((tag) => provenance.tags.includes(tag.name)).map((tag) => tag.id);
-  const stale = await tagsAwaitingRefresh(db.$client, usedIds);
-  if (stale.length > 0) notes.push(`Imported data of ${stale.length} tag(s) used here awaits \`osmia refresh\`: the hourly means may be out of date.`);
   provenance.workOrders = capped([...new Set(provenance.workOrders)], 'work orders', provenanceNotes);
   provenance.elements = capped([...new Set(provenance.elements)], 'element serials', provenanceNotes);
   return { ...header, stages: answers, notes: [...notes, ...provenanceNotes], provenance };
+}
+
+/** A day of the site's calendar, for notes a person reads ("2025-01-06"). */
+function formatDay(time: Date, timeZone: string): string {
+  return new TZDate(time.getTime(), timeZone).toISOString().slice(0, 10);
 }
 
 function emptyStage(

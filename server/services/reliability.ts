@@ -1,5 +1,6 @@
 // Reliability KPI (DESIGN §6, §7): MTBF with chi-square bounds, MTTR, mean active repair time and
 // availability of an asset and everything below it (or of the whole site), optionally per asset or kind.
+import type { BeforeFreshness } from '#shared/schemas/common.ts';
 import {
   operatingTimeFromCalendar,
   operatingTimeFromRunStatus,
@@ -47,7 +48,7 @@ interface MttrBasis {
   unknown: number;
 }
 
-type Figures = Omit<ReliabilityReport, 'site' | 'from' | 'to' | 'confidence' | 'sides' | 'terminated' | 'groups' | 'provenance'> & {
+type Figures = Omit<BeforeFreshness<ReliabilityReport>, 'site' | 'from' | 'to' | 'confidence' | 'sides' | 'terminated' | 'groups' | 'provenance'> & {
   operatingTime: {
     windowHours: number;
     uptimeHours: number;
@@ -60,7 +61,7 @@ type Figures = Omit<ReliabilityReport, 'site' | 'from' | 'to' | 'confidence' | '
 };
 
 export type ReliabilityGroupAnswer = Figures & { key: string };
-export type ReliabilityAnswer = Omit<ReliabilityReport, 'groups' | 'provenance'> &
+export type ReliabilityAnswer = Omit<BeforeFreshness<ReliabilityReport>, 'groups' | 'provenance'> &
   Figures & {
     groups: ReliabilityGroupAnswer[];
     provenance: Provenance;

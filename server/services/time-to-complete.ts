@@ -1,6 +1,7 @@
 // Time to complete: the job steps of the work orders in scope and window, what kind of job each
 // work order is (its "procedure"), calendar quarters for the learning curve — then
 // shared/kpi/time-to-complete.ts.
+import type { BeforeFreshness } from '#shared/schemas/common.ts';
 import { TZDate } from '@date-fns/tz';
 import { vesselWorkCautions } from '#shared/cautions.ts';
 import { timeToComplete, type JobInfo, type LearningBucket } from '#shared/kpi/time-to-complete.ts';
@@ -43,7 +44,7 @@ export function calendarQuarters(first: Date, last: Date, timeZone: string): Arr
 type TimeToCompleteGroup = TimeToCompleteReport['groups'][number];
 
 /** The answer plus the cautions of vessel work and the procedure rule, both shown beside it. */
-export type TimeToCompleteAnswer = TimeToCompleteReport & {
+export type TimeToCompleteAnswer = BeforeFreshness<TimeToCompleteReport> & {
   procedureDefinition: string;
   /** Safety cautions for the vessel work most of these jobs are (shared/cautions.ts, DESIGN §9). */
   cautions: readonly string[];

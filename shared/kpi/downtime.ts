@@ -9,6 +9,7 @@ import type { WorkOrderStatus, WorkOrderType } from '#shared/schemas/enums.ts';
 import {
   hoursBetween,
   instantMs,
+  mergeIntervals,
   runStateSpans,
   windowMs,
   overlapMs,
@@ -90,6 +91,11 @@ export interface DowntimeEvent {
   /** The corrective work order the cause comes from; null when none overlaps. */
   causeWorkOrder: string | null;
   causeOverlapHours: number;
+  /**
+   * Assets below this one whose own run-status tags read stopped during this stop: they stopped with it
+   * and are counted here, once, not as events of their own.
+   */
+  alsoStopped: string[];
 }
 
 export interface DowntimeTotal {
@@ -118,11 +124,22 @@ export interface ParetoRow {
   cumulativeShare: number;
 }
 
+/** The whole answer in one row: every event once. Totals by asset and both Pareto tables add up to it. */
+export interface DowntimePlantTotal {
+  events: number;
+  hours: number;
+  plannedHours: number;
+  unplannedHours: number;
+  lostVolumeM3: number | null;
+  cost: number | null;
+}
+
 export interface DowntimeResult {
   from: string;
   to: string;
   events: DowntimeEvent[];
   totals: DowntimeTotal[];
+  plant: DowntimePlantTotal;
   paretoByCause: ParetoRow[];
   paretoByAsset: ParetoRow[];
   waterValuePerM3: number | null;
@@ -276,27 +293,47 @@ export function paretoTable(events: readonly DowntimeEvent[], keyOf: (e: Downtim
     list.push(e);
     groups.set(key, list);
   }
-  const total = events.reduce((acc, e) => acc + e.hours, 0);
-  if (total <= 0) return [];
+  // Shares come from whole milliseconds, not from summed fractional hours: the running sum of the
+  // last row is then exactly the total, so the cumulative share ends at exactly 1, never 1.0000000000000004.
+  const msOf = (e: DowntimeEvent) => Date.parse(e.to) - Date.parse(e.from);
+  const totalMs = events.reduce((acc, e) => acc + msOf(e), 0);
+  if (totalMs <= 0) return [];
   const rows = [...groups.entries()].map(([key, list]) => ({
     key,
+    ms: list.reduce((acc, e) => acc + msOf(e), 0),
     events: list.length,
     hours: sum(list.map((e) => e.hours)),
     plannedHours: sum(list.filter((e) => e.planned).map((e) => e.hours)),
     unplannedHours: sum(list.filter((e) => !e.planned).map((e) => e.hours)),
     lostVolumeM3: sumOrNull(list.map((e) => e.lostVolumeM3)),
     cost: sumOrNull(list.map((e) => e.cost)),
-    share: 0,
-    cumulativeShare: 0,
   }));
-  rows.sort((a, b) => b.hours - a.hours || (a.key < b.key ? -1 : a.key > b.key ? 1 : 0));
-  let running = 0;
-  for (const row of rows) {
-    row.share = row.hours / total;
-    running += row.hours;
-    row.cumulativeShare = running / total;
+  rows.sort((a, b) => b.ms - a.ms || (a.key < b.key ? -1 : a.key > b.key ? 1 : 0));
+  let runningMs = 0;
+  return rows.map(({ ms, ...row }) => {
+    runningMs += ms;
+    return { ...row, share: ms / totalMs, cumulativeShare: runningMs / totalMs };
+  });
+}
+
+/**
+ * The parts of `spans` outside every interval of `cover` (merged, sorted), each flagged with whether it
+ * keeps the span's own start and end. Used to take out of an asset's stops the time an asset above it
+ * was stopped too.
+ */
+export function spansOutside(spans: readonly StopSpan[], cover: readonly MsInterval[]): StopSpan[] {
+  const out: StopSpan[] = [];
+  for (const span of spans) {
+    let at = span.fromMs;
+    for (const c of cover) {
+      if (c.toMs <= at || c.fromMs >= span.toMs) continue;
+      if (c.fromMs > at) out.push({ fromMs: at, toMs: c.fromMs, clippedAtStart: at === span.fromMs && span.clippedAtStart, clippedAtEnd: false });
+      at = Math.max(at, c.toMs);
+      if (at >= span.toMs) break;
+    }
+    if (at < span.toMs) out.push({ fromMs: at, toMs: span.toMs, clippedAtStart: at === span.fromMs && span.clippedAtStart, clippedAtEnd: span.clippedAtEnd });
   }
-  return rows;
+  return out;
 }
 
 /** The window cut at `dataUntil` when that falls inside it (never before the window start). */
@@ -338,9 +375,9 @@ export function downtimeReport(input: DowntimeInput): DowntimeResult {
   const notes: string[] = [];
   if (waterValuePerM3 === null) notes.push('No water value per m³ is set: costs are null.');
 
+  // Pass 1: every asset's stops as its own run-status tag reads them.
   const seen = new Set<string>();
-  const events: DowntimeEvent[] = [];
-  const totals: DowntimeTotal[] = [];
+  const raw = new Map<string, StopSpan[]>();
   for (const asset of input.assets) {
     if (seen.has(asset.asset)) throw new RangeError(`asset ${asset.asset} is listed twice`);
     seen.add(asset.asset);
@@ -351,15 +388,30 @@ export function downtimeReport(input: DowntimeInput): DowntimeResult {
     if (asset.samples.length === 0 && !asset.priorSample) {
       notes.push(`${asset.asset} (${asset.runStatusTag}) has no good run-status sample in the window: no stops counted.`);
     }
-    const scope = assetScope(input.assetTree, asset.asset);
     const assetWindow = windowUntil(input.window, asset.dataUntil ?? null);
     if (assetWindow.to < input.window.to) {
       notes.push(`${asset.asset} (${asset.runStatusTag}) has run-status data only until ${assetWindow.to.toISOString()}: stops are cut there.`);
     }
-    const assetEvents: DowntimeEvent[] = [];
+    raw.set(asset.asset, stopSpans(asset.samples, assetWindow, asset.priorSample));
+  }
+
+  // Pass 2: an asset's own stops are the time it was stopped while no asset above it (with a run-status
+  // tag of its own) was: a pump that stops with its train is part of the train's stop, counted once there.
+  const above = ancestorsWithStops(input.assetTree, raw);
+  const events: DowntimeEvent[] = [];
+  const totals: DowntimeTotal[] = [];
+  let absorbed = 0;
+  for (const asset of input.assets) {
+    const own = raw.get(asset.asset)!;
+    const cover = mergeIntervals((above.get(asset.asset) ?? []).flatMap((code) => raw.get(code)!));
+    const pieces = cover.length > 0 ? spansOutside(own, cover) : own;
+    if (pieces.length !== own.length || pieces.some((p, i) => p.fromMs !== own[i]!.fromMs || p.toMs !== own[i]!.toMs)) absorbed++;
+    const scope = assetScope(input.assetTree, asset.asset);
+    const below = [...raw.keys()].filter((code) => code !== asset.asset && above.get(code)?.includes(asset.asset));
     // The work orders that can touch this asset's stops, found once rather than for every stop.
-    const candidates = workOrders.filter((wo) => wo.oos !== null && wo.status !== 'cancelled' && scope.has(wo.asset) && wo.oos.toMs > assetWindow.from.getTime());
-    for (const stop of stopSpans(asset.samples, assetWindow, asset.priorSample)) {
+    const candidates = workOrders.filter((wo) => wo.oos !== null && wo.status !== 'cancelled' && scope.has(wo.asset) && wo.oos.toMs > input.window.from.getTime());
+    const assetEvents: DowntimeEvent[] = [];
+    for (const stop of pieces) {
       const hours = hoursBetween(stop.fromMs, stop.toMs);
       const c = classifyStop(stop, scope, candidates);
       const lostVolumeM3 = asset.ratedPermeateM3h === null ? null : hours * asset.ratedPermeateM3h;
@@ -378,22 +430,21 @@ export function downtimeReport(input: DowntimeInput): DowntimeResult {
         plannedBy: c.plannedBy,
         causeWorkOrder: c.causeWorkOrder,
         causeOverlapHours: c.causeOverlapHours,
+        alsoStopped: below.filter((code) => overlapsAny(raw.get(code)!, stop)),
       });
     }
-    const hours = sum(assetEvents.map((e) => e.hours));
-    const lostVolumeM3 = asset.ratedPermeateM3h === null ? null : hours * asset.ratedPermeateM3h;
     totals.push({
       asset: asset.asset,
-      events: assetEvents.length,
-      hours,
-      plannedHours: sum(assetEvents.filter((e) => e.planned).map((e) => e.hours)),
-      unplannedHours: sum(assetEvents.filter((e) => !e.planned).map((e) => e.hours)),
-      lostVolumeM3,
-      cost: lostVolumeM3 === null || waterValuePerM3 === null ? null : lostVolumeM3 * waterValuePerM3,
+      ...sumEvents(assetEvents),
       tag: asset.runStatusTag,
       ratedPermeateM3h: asset.ratedPermeateM3h,
     });
     events.push(...assetEvents);
+  }
+  if (absorbed > 0) {
+    notes.push(
+      `Stops of ${absorbed === 1 ? 'one asset' : `${absorbed} assets`} that stopped while an asset above them was stopped too are counted once, in that asset's event (alsoStopped).`,
+    );
   }
   if (events.some((e) => e.clippedAtEnd)) {
     notes.push('Some stops were still open at the window end: they are cut there (clippedAtEnd).');
@@ -404,9 +455,54 @@ export function downtimeReport(input: DowntimeInput): DowntimeResult {
     to: input.window.to.toISOString(),
     events,
     totals,
+    plant: sumEvents(events),
     paretoByCause: paretoTable(events, (e) => e.cause),
     paretoByAsset: paretoTable(events, (e) => e.asset),
     waterValuePerM3,
     notes,
   };
+}
+
+/** Count, hours (planned and not), lost volume and cost of some events; volume and cost null when any event's is. */
+function sumEvents(events: readonly DowntimeEvent[]): DowntimePlantTotal {
+  return {
+    events: events.length,
+    hours: sum(events.map((e) => e.hours)),
+    plannedHours: sum(events.filter((e) => e.planned).map((e) => e.hours)),
+    unplannedHours: sum(events.filter((e) => !e.planned).map((e) => e.hours)),
+    lostVolumeM3: sumOrNull(events.map((e) => e.lostVolumeM3)),
+    cost: sumOrNull(events.map((e) => e.cost)),
+  };
+}
+
+/**
+ * For each asset with stops, the assets above it in the tree that have stops of their own (run-status
+ * tags), nearest first. A cycle in the tree is an error (as in `assetScope`).
+ */
+function ancestorsWithStops(tree: readonly AssetNode[], withStops: ReadonlyMap<string, unknown>): Map<string, string[]> {
+  const parentOf = new Map(tree.map((n) => [n.code, n.parent]));
+  const out = new Map<string, string[]>();
+  for (const code of withStops.keys()) {
+    const line: string[] = [];
+    const visited = new Set([code]);
+    for (let at = parentOf.get(code) ?? null; at !== null; at = parentOf.get(at) ?? null) {
+      if (visited.has(at)) throw new RangeError(`asset tree has a cycle through ${at}`);
+      visited.add(at);
+      if (withStops.has(at)) line.push(at);
+    }
+    out.set(code, line);
+  }
+  return out;
+}
+
+/** Whether any of the time-sorted, non-overlapping `spans` shares time with `interval` (binary search). */
+function overlapsAny(spans: readonly MsInterval[], interval: MsInterval): boolean {
+  let lo = 0;
+  let hi = spans.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (spans[mid]!.toMs <= interval.fromMs) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo < spans.length && spans[lo]!.fromMs < interval.toMs;
 }

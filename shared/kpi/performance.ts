@@ -395,7 +395,58 @@ function changePct(value: number, baseline: number): number {
   return 100 * (value / baseline - 1);
 }
 
+/** What can set a new baseline (DESIGN §6: "the first day after the last element change or cleaning"). */
+export interface BaselineReset {
+  at: Date;
+  kind: 'cleaning' | 'element-change-out';
+  /** The cleaning work order; null for a change-out. */
+  workOrder: string | null;
+  /** Elements installed in the change-out; null for a cleaning. */
+  elements: number | null;
+}
+
+/**
+ * Element change-outs large enough to reset a stage's performance baseline: at least `sharePct` % of the
+ * stage's `positions` element positions replaced within `days` days. A single swap leaves the baseline
+ * alone — a process engineer compares the stage with the state its membranes have been in since the
+ * last cleaning or re-loading, and one new element of forty barely moves the stage's figures (common
+ * practice; defaults 20 % within 7 days, both settings). Each change-out is dated by its last install
+ * (the stage is back in its new state then). Installs are the times of installs after the initial fill.
+ * Degenerate input: no installs or no positions → [].
+ */
+export function elementChangeOuts(installs: readonly Date[], positions: number, rule: { sharePct: number; days: number }): { at: Date; from: Date; elements: number }[] {
+  if (positions <= 0 || installs.length === 0) return [];
+  const times = installs.map((d) => d.getTime()).sort((a, b) => a - b);
+  const needed = Math.max(1, Math.ceil((rule.sharePct / 100) * positions - 1e-9));
+  const spanMs = rule.days * 86_400_000;
+  const out: { at: Date; from: Date; elements: number }[] = [];
+  for (let i = 0; i < times.length; ) {
+    let j = i;
+    while (j + 1 < times.length && times[j + 1]! - times[i]! <= spanMs) j++;
+    if (j - i + 1 >= needed) {
+      out.push({ at: new Date(times[j]!), from: new Date(times[i]!), elements: j - i + 1 });
+      i = j + 1;
+    } else i++;
+  }
+  return out;
+}
+
 export type BaselineReason = 'first-running-day' | 'after-reset';
+
+export interface BaselineSetBy {
+  kind: 'first-running-day' | BaselineReset['kind'];
+  at: string | null;
+  workOrder: string | null;
+  elements: number | null;
+}
+
+/** Which event set a baseline that follows a reset at `resetAt`: the cleaning or change-out dated then (a cleaning first). */
+export function baselineSetBy(resetAt: string | null, resets: readonly BaselineReset[]): BaselineSetBy {
+  const at = resetAt === null ? [] : resets.filter((r) => r.at.toISOString() === resetAt);
+  const event = at.find((r) => r.kind === 'cleaning') ?? at[0];
+  if (!event) return { kind: 'first-running-day', at: null, workOrder: null, elements: null };
+  return { kind: event.kind, at: event.at.toISOString(), workOrder: event.workOrder, elements: event.elements };
+}
 
 export interface BaselineChoice {
   index: number;
@@ -463,7 +514,7 @@ export interface NormalizedPoint {
 }
 
 export interface PerformanceResult {
-  baseline: (BaselineChoice & { state: StageState }) | null;
+  baseline: (BaselineChoice & { state: StageState; setBy: BaselineSetBy }) | null;
   points: NormalizedPoint[];
   latest: NormalizedPoint | null;
   alerts: PerformanceAlert[];
@@ -574,7 +625,7 @@ export function performanceAlerts(series: readonly NormalizedPoint[], settings: 
  */
 export function normalizePerformance(
   points: readonly PerformancePoint[],
-  options: { resetTimes?: readonly Date[]; settings?: Partial<PerformanceSettings> } = {},
+  options: { resets?: readonly BaselineReset[]; settings?: Partial<PerformanceSettings> } = {},
 ): PerformanceResult {
   const settings = resolvePerformanceSettings(options.settings);
   const notes: string[] = [];
@@ -582,7 +633,8 @@ export function normalizePerformance(
   const order = states.map((_, i) => i).sort((a, b) => points[a]!.time.getTime() - points[b]!.time.getTime() || a - b);
   const sortedPoints = order.map((i) => points[i]!);
   const sortedStates = order.map((i) => states[i]!);
-  const choice = selectBaseline(sortedPoints, options.resetTimes ?? []);
+  const resets = options.resets ?? [];
+  const choice = selectBaseline(sortedPoints, resets.map((r) => r.at));
   if (choice === null) {
     notes.push('No running data in the window: nothing to normalize.');
     return { baseline: null, points: [], latest: null, alerts: [], settings, notes };
@@ -596,7 +648,7 @@ export function normalizePerformance(
     notes.push(`${choice.index} point(s) before the baseline (${choice.time}) are shown against it but raise no alerts.`);
   }
   return {
-    baseline: { ...choice, state: reference },
+    baseline: { ...choice, state: reference, setBy: baselineSetBy(choice.resetAt, resets) },
     points: normalized,
     latest: normalized[normalized.length - 1] ?? null,
     alerts: performanceAlerts(normalized.slice(choice.index), settings),

@@ -36,3 +36,31 @@ export const windowQuerySchema = z.object({
   confidence: confidenceSchema,
 });
 export type WindowQuery = z.infer<typeof windowQuerySchema>;
+
+/**
+ * How fresh a KPI answer is (every KPI answer carries it). `dataAsOf`: the newest historian sample and
+ * the newest work-order time of the site the answer could use — at or before the window's end; null
+ * when there is none. `derivedUpToDate`: false when samples were imported whose hourly rollups and stop
+ * events (what the historian KPIs read) are not rebuilt yet; always true for a KPI that reads none.
+ * `warnings`: what a reader must know before trusting the figures, each naming what to do (empty when
+ * there is nothing to say). The CLI prints them on stderr, the pages as a banner.
+ */
+export const freshnessShape = {
+  dataAsOf: z.object({
+    newestSampleAt: isoInstantSchema.nullable(),
+    newestWorkOrderAt: isoInstantSchema.nullable(),
+  }),
+  derivedUpToDate: z.boolean(),
+  warnings: z.array(z.string()),
+};
+export const freshnessSchema = z.object(freshnessShape);
+export type Freshness = z.infer<typeof freshnessSchema>;
+
+/** A KPI answer as its service computes it, before the freshness fields are added (server/services/freshness.ts). */
+export type BeforeFreshness<T> = Omit<T, keyof Freshness>;
+
+/** A KPI answer schema without its freshness fields: what a service's own answer is checked against. */
+export function beforeFreshnessSchema<Shape extends z.ZodRawShape>(schema: z.ZodObject<Shape>) {
+  const mask = { dataAsOf: true, derivedUpToDate: true, warnings: true } as const;
+  return schema.omit(mask as never) as unknown as z.ZodObject<{ [K in Exclude<keyof Shape, keyof Freshness>]: Shape[K] }>;
+}

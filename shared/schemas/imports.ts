@@ -28,6 +28,12 @@ export const importRecordSchema = z.object({
   /** What the importer noticed: daylight-saving corrections, ignored columns, formula-like text, units. */
   notes: z.record(z.string(), z.unknown()),
   error: z.string().nullable(),
+  /**
+   * Whether the tables derived from imported data (hourly rollups, stop events) include this import:
+   * true once a refresh ran after it landed — the import's own, unless it was run with --no-refresh, or
+   * a later `osmia refresh`. False for a dry run, a duplicate or a failed import (nothing to include).
+   */
+  derivedRefreshed: z.boolean(),
 });
 export type ImportRecord = z.infer<typeof importRecordSchema>;
 

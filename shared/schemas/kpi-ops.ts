@@ -5,11 +5,17 @@
 // maintenance-mix.ts, wrapped with the site, the resolved window and provenance by the service.
 import { z } from 'zod';
 
-import { isoInstantSchema, windowQuerySchema } from './common.ts';
+import { freshnessShape, isoInstantSchema, windowQuerySchema } from './common.ts';
 import { provenanceSchema } from './kpi.ts';
 
 const hours = z.number().nonnegative();
 const fraction = z.number().min(0).max(1);
+/**
+ * A share of a whole that the server sums: the server computes it so it cannot pass 1 (whole
+ * milliseconds, shared/kpi/downtime.ts), and a reader tolerates the last bits of floating-point
+ * rounding rather than refusing a whole page over 1.0000000000000004.
+ */
+const share = z.number().min(0).max(1 + 1e-9);
 const count = z.number().int().nonnegative();
 const m3 = z.number().nonnegative();
 const money = z.number().nonnegative();
@@ -121,11 +127,23 @@ export const performanceAlertSchema = z.object({
 });
 
 export const performanceBaselineSchema = z.object({
+  /** Index in `points` of the first point at or after the baseline (0 when the baseline day is before the window). */
   index: count,
+  /** The baseline day; it may lie before the window (the first running day after the last reset before it). */
   time: isoInstantSchema,
   reason: z.enum(['first-running-day', 'after-reset']),
   resetAt: isoInstantSchema.nullable(),
   state: stageStateSchema,
+  /**
+   * The event that set the baseline: a cleaning (its work order), an element change-out (how many elements;
+   * single swaps below the settings' share do not reset it), or none — the first running day of the data.
+   */
+  setBy: z.object({
+    kind: z.enum(['first-running-day', 'cleaning', 'element-change-out']),
+    at: isoInstantSchema.nullable(),
+    workOrder: z.string().nullable(),
+    elements: count.nullable(),
+  }),
 });
 
 /** One stage's series (ASTM D4516 standardizes stage by stage). */
@@ -151,6 +169,7 @@ export const performanceStageSchema = z.object({
 
 export const performanceReportSchema = z.object({
   site: z.string().optional(),
+  ...freshnessShape,
   from: isoInstantSchema.nullable(),
   to: isoInstantSchema.nullable(),
   stages: z.array(performanceStageSchema),
@@ -184,6 +203,8 @@ export const downtimeEventSchema = z.object({
   plannedBy: z.array(z.string()),
   causeWorkOrder: z.string().nullable(),
   causeOverlapHours: hours,
+  /** Assets below this one that were stopped during this stop too: counted here, once, not as their own events. */
+  alsoStopped: z.array(z.string()),
 });
 
 /** DESIGN §7 keys: asset, events, hours, plannedHours, unplannedHours, lostVolumeM3, cost. */
@@ -207,16 +228,26 @@ export const paretoRowSchema = z.object({
   unplannedHours: hours,
   lostVolumeM3: m3.nullable(),
   cost: money.nullable(),
-  share: fraction,
-  cumulativeShare: fraction,
+  share,
+  cumulativeShare: share,
 });
 
 export const downtimeReportSchema = z.object({
   site: z.string().optional(),
+  ...freshnessShape,
   from: isoInstantSchema,
   to: isoInstantSchema,
   events: z.array(downtimeEventSchema),
   totals: z.array(downtimeTotalSchema),
+  /** Every event once: the totals by asset and both Pareto tables add up to these hours, volume and cost. */
+  plant: z.object({
+    events: count,
+    hours,
+    plannedHours: hours,
+    unplannedHours: hours,
+    lostVolumeM3: m3.nullable(),
+    cost: money.nullable(),
+  }),
   paretoByCause: z.array(paretoRowSchema),
   paretoByAsset: z.array(paretoRowSchema),
   waterValuePerM3: money.nullable(),
@@ -281,6 +312,7 @@ export const maintenanceCostSchema = z.object({
 
 export const maintenanceMixReportSchema = z.object({
   site: z.string().optional(),
+  ...freshnessShape,
   asset: z.string().optional(),
   from: isoInstantSchema,
   to: isoInstantSchema,

@@ -6,7 +6,7 @@ import { z } from 'zod';
 
 import type { OperatingTimeSource } from '#shared/kpi/operating-time.ts';
 
-import { isoInstantSchema, windowQuerySchema } from './common.ts';
+import { freshnessShape, isoInstantSchema, windowQuerySchema } from './common.ts';
 
 /** Why a KPI value is null (never NaN or Infinity); sentences in shared/kpi/stats.ts. */
 export const nullReasons = [
@@ -110,6 +110,7 @@ export const reliabilityGroupSchema = reliabilityFiguresSchema.extend({ key: z.s
 
 export const reliabilityReportSchema = reliabilityFiguresSchema.extend({
   site: z.string().optional(),
+  ...freshnessShape,
   /** The resolved window [from, to); null when there is no data to bound a default window. */
   from: isoInstantSchema.nullable(),
   to: isoInstantSchema.nullable(),
@@ -196,6 +197,7 @@ export const elementLifeGroupSchema = z.object({
 
 export const elementLifeReportSchema = z.object({
   site: z.string().optional(),
+  ...freshnessShape,
   from: isoInstantSchema.nullable().optional(),
   to: isoInstantSchema.nullable().optional(),
   confidence: confidence.optional(),
@@ -250,6 +252,7 @@ export const forecastGroupSchema = z.object({
 
 export const forecastReportSchema = z.object({
   site: z.string().optional(),
+  ...freshnessShape,
   asOf: isoInstantSchema,
   confidence,
   groupBy: z.enum(elementGroupByValues),
@@ -324,6 +327,7 @@ const learningBucketSchema = z.object({
 
 export const timeToCompleteReportSchema = z.object({
   site: z.string().optional(),
+  ...freshnessShape,
   from: isoInstantSchema.nullable().optional(),
   to: isoInstantSchema.nullable().optional(),
   quantileMethod: z.literal(quantileMethodType7),

@@ -13,6 +13,8 @@ const settingFields = {
   alertFlowDropPct: z.number().positive().max(100),
   alertDpRisePct: z.number().positive().max(500),
   alertSaltPassageRisePct: z.number().positive().max(500),
+  baselineChangeOutSharePct: z.number().positive().max(100),
+  baselineChangeOutDays: z.number().positive().max(365),
   digestRecipients: z.array(z.email()),
 };
 
@@ -23,7 +25,9 @@ export type SettingKey = keyof Settings;
 
 /**
  * Defaults: DESIGN.md §6 (normalization constants: common practice; alert levels: common practice,
- * flow −10 %, ΔP +15 %, salt passage +5 %); costs are the demo plant's invented figures.
+ * flow −10 %, ΔP +15 %, salt passage +5 %; a performance baseline resets after a change-out of 20 % of
+ * a stage's elements within 7 days, not after a single swap: common practice); costs are the demo
+ * plant's invented figures.
  */
 export const settingsDefaults: Settings = {
   currency: 'EUR',
@@ -38,6 +42,8 @@ export const settingsDefaults: Settings = {
   alertFlowDropPct: 10,
   alertDpRisePct: 15,
   alertSaltPassageRisePct: 5,
+  baselineChangeOutSharePct: 20,
+  baselineChangeOutDays: 7,
   digestRecipients: [],
 };
 

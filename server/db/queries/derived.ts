@@ -22,6 +22,22 @@ export async function claimDirtyRanges(q: Queryable): Promise<DirtyRange[]> {
   return rows.map((r) => ({ tagId: r.tag_id, from: r.from, to: r.to }));
 }
 
+/**
+ * Tags whose asset or quantity changed (a tag-map import): their stop events go (they may name the old
+ * asset, or no longer be of a run-status tag) and every hour they have samples for is queued, so the
+ * next refresh rebuilds their rollups and stops under the new mapping.
+ */
+export async function markTagsDirty(q: Queryable, tagIds: readonly number[]): Promise<void> {
+  if (tagIds.length === 0) return;
+  await q.query(`delete from downtime_events where tag_id = any($1::int[])`, [tagIds]);
+  await q.query(
+    `insert into dirty_hours (tag_id, from_hour, to_hour)
+     select tag_id, date_trunc('hour', min(from_ts)), date_trunc('hour', max(to_ts)) + interval '1 hour'
+     from sample_coverage where tag_id = any($1::int[]) group by tag_id`,
+    [tagIds],
+  );
+}
+
 /** Mark every hour of every tag that has samples as dirty (a full rebuild). */
 export async function markAllDirty(q: Queryable): Promise<number> {
   const { rowCount } = await q.query(

@@ -29,7 +29,7 @@ const select = `select i.id, i.kind, s.code as site, i.file_name, i.sha256, i.ac
   from imports i left join sites s on s.id = i.site_id`;
 
 export function toRecord(row: ImportRow, rejects: Reject[] = []): ImportRecord {
-  const { rowsUpdated = 0, ...notes } = row.notes as { rowsUpdated?: number };
+  const { rowsUpdated = 0, derivedRefreshed = false, ...notes } = row.notes as { rowsUpdated?: number; derivedRefreshed?: boolean };
   return {
     id: row.id,
     kind: row.kind,
@@ -49,7 +49,30 @@ export function toRecord(row: ImportRow, rejects: Reject[] = []): ImportRecord {
     dryRun: false,
     notes,
     error: row.error,
+    derivedRefreshed,
   };
+}
+
+/**
+ * Mark every landed import not yet marked as included in the derived tables: refresh calls it in its
+ * transaction just before it claims the queued hours, so an import counts as refreshed only when its
+ * hours were queued before that claim (one landing in between is left unmarked, never marked early).
+ */
+export async function noteRefreshFailure(q: Queryable, id: number, message: string): Promise<void> {
+  await q.query(`update imports set notes = notes || jsonb_build_object('refreshError', $2::text) where id = $1`, [id, message]);
+}
+
+/** The refresh after an import is part of the command: its time is added to the import's duration. */
+export async function addImportDuration(q: Queryable, id: number, ms: number): Promise<void> {
+  await q.query(`update imports set duration_ms = duration_ms + $2 where id = $1`, [id, ms]);
+}
+
+export async function markImportsRefreshed(q: Queryable): Promise<number> {
+  const { rowCount } = await q.query(
+    `update imports set notes = notes || '{"derivedRefreshed": true}'::jsonb
+     where status in ('completed', 'partial') and not coalesce((notes->>'derivedRefreshed')::boolean, false)`,
+  );
+  return rowCount ?? 0;
 }
 
 export async function insertRunningImport(

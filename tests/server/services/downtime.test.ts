@@ -1,6 +1,7 @@
 // Downtime service on the invented plant of ops-plant.ts (importers + `osmia refresh`). Expected figures are
 // worked by hand from the plant's description: stop hours × rated permeate flow (m³/h) × the default water value
 // 0.85 per m³ (shared/schemas/settings.ts); Pareto shares are hours / total hours (common practice).
+import { beforeFreshnessSchema } from '#shared/schemas/common.ts';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { downtimeQuerySchema, downtimeReportSchema } from '#shared/schemas/kpi-ops.ts';
 import { getDowntime } from '#server/services/downtime.ts';
@@ -22,7 +23,7 @@ const run = (q: Record<string, unknown>) =>
 
 describe('stop events of the whole site', () => {
   it('lists each stop with the keys of DESIGN §7, planned vs unplanned and its cause', async () => {
-    const report = downtimeReportSchema.parse(await run({}));
+    const report = beforeFreshnessSchema(downtimeReportSchema).parse(await run({}));
     expect(report.events.map((e) => [e.asset, e.from, e.to, e.hours, e.planned, e.cause, e.lostVolumeM3])).toEqual([
       // Seal leak: overlaps WO-1 (corrective, SEAL-LEAK) only → unplanned. 12 h × 100 m³/h.
       ['TR1', '2025-01-03T06:00:00.000Z', '2025-01-03T18:00:00.000Z', 12, false, 'SEAL-LEAK', 1200],
@@ -100,14 +101,14 @@ describe('windows and scope', () => {
   });
 
   it('answers an asset without a run-status tag with no events and says why', async () => {
-    const report = downtimeReportSchema.parse(await run({ asset: 'TR1-HPP' }));
+    const report = beforeFreshnessSchema(downtimeReportSchema).parse(await run({ asset: 'TR1-HPP' }));
     expect(report.events).toEqual([]);
     expect(report.totals).toEqual([]);
     expect(report.notes).toContain('No asset in scope has a run-status tag: there are no stop events to count.');
   });
 
   it('answers a window without data with zero totals', async () => {
-    const report = downtimeReportSchema.parse(await run({ from: '2024-06-01T00:00:00Z', to: '2024-07-01T00:00:00Z' }));
+    const report = beforeFreshnessSchema(downtimeReportSchema).parse(await run({ from: '2024-06-01T00:00:00Z', to: '2024-07-01T00:00:00Z' }));
     expect(report.events).toEqual([]);
     expect(report.totals.map((r) => [r.asset, r.hours])).toEqual([
       ['TR1', 0],
@@ -116,7 +117,7 @@ describe('windows and scope', () => {
   });
 
   it('answers a site without data with an empty window', async () => {
-    const report = downtimeReportSchema.parse(await getDowntime(t.db, downtimeQuerySchema.parse({ site: 'EMPTY' })));
+    const report = beforeFreshnessSchema(downtimeReportSchema).parse(await getDowntime(t.db, downtimeQuerySchema.parse({ site: 'EMPTY' })));
     expect(report.from).toBe(report.to);
     expect(report.events).toEqual([]);
     expect(report.notes.join(' ')).toMatch(/no data to bound a window/);
@@ -124,14 +125,5 @@ describe('windows and scope', () => {
 
   it('refuses an empty window', async () => {
     await expect(run({ from: '2025-01-02T00:00:00Z', to: '2025-01-02T00:00:00Z' })).rejects.toMatchObject({ status: 400, code: 'invalid-window' });
-  });
-});
-
-describe('derived tables not yet refreshed', () => {
-  it('says that imported run-status data awaits `osmia refresh`', async () => {
-    const rec = await importText(t.db, 'historian', 'timestamp,tag,value,quality\n2025-01-11T01:00:00Z,TR1.RUN,0,good\n', { site: SITE });
-    expect(rec.status).toBe('completed');
-    const report = await run({ asset: 'TR1' });
-    expect(report.notes).toContain('Imported data of TR1.RUN awaits `osmia refresh`: stops and operating time may be out of date.');
   });
 });

@@ -1,5 +1,6 @@
 // Element life through the importers and the service: the window rule, grouping, Kaplan–Meier by
 // hand, and a published Weibull fit reproduced after the lives went through CSV, database and back.
+import { beforeFreshnessSchema, type BeforeFreshness } from '#shared/schemas/common.ts';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { fitWeibull } from '#shared/kpi/element-life.ts';
 import { elementLifeQuerySchema, elementLifeReportSchema, type ElementLifeReport } from '#shared/schemas/kpi.ts';
@@ -52,11 +53,11 @@ async function site(code: string, elements: string[], tz = 'UTC') {
   }
 }
 
-function report(query: Record<string, unknown>): Promise<ElementLifeReport> {
-  return getElementLife(t.db, elementLifeQuerySchema.parse(query)).then((r) => elementLifeReportSchema.parse(r));
+function report(query: Record<string, unknown>): Promise<BeforeFreshness<ElementLifeReport>> {
+  return getElementLife(t.db, elementLifeQuerySchema.parse(query)).then((r) => beforeFreshnessSchema(elementLifeReportSchema).parse(r));
 }
 
-const group = (r: ElementLifeReport, key: string) => {
+const group = (r: BeforeFreshness<ElementLifeReport>, key: string) => {
   const g = r.groups.find((x) => x.key === key);
   if (!g) throw new Error(`no group ${key} in ${r.groups.map((x) => x.key).join(', ')}`);
   return g;

@@ -1,5 +1,6 @@
 // Maintenance mix through the importers, `osmia refresh` and the service: labour mix, PM compliance,
 // backlog and cost per m³ of permeate produced from hourly rollups, all worked by hand.
+import { beforeFreshnessSchema, type BeforeFreshness } from '#shared/schemas/common.ts';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { maintenanceMixQuerySchema, maintenanceMixReportSchema, type MaintenanceMixReport } from '#shared/schemas/kpi-ops.ts';
 import { refresh } from '#server/jobs/refresh.ts';
@@ -58,8 +59,8 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-async function mix(query: Record<string, unknown>): Promise<MaintenanceMixReport> {
-  return maintenanceMixReportSchema.parse(await getMaintenanceMix(t.db, maintenanceMixQuerySchema.parse(query)));
+async function mix(query: Record<string, unknown>): Promise<BeforeFreshness<MaintenanceMixReport>> {
+  return beforeFreshnessSchema(maintenanceMixReportSchema).parse(await getMaintenanceMix(t.db, maintenanceMixQuerySchema.parse(query)));
 }
 
 const day = { from: '2021-01-01T00:00:00Z', to: '2021-01-02T00:00:00Z' };

@@ -3,6 +3,7 @@
 // ASTM D4516 structure (normalized flow = Qp · NDPref/NDP · TCF/TCFref; NDP = Pf − ΔP/2 − Pp − (πfb − πp);
 // log-mean feed-brine concentration Cf·ln(1/(1−Y))/Y), with the common-practice constants of DESIGN §6:
 // TDS = 0.67 × conductivity and 1 psi (0.0689475729 bar) per 100 mg/L TDS.
+import { beforeFreshnessSchema } from '#shared/schemas/common.ts';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { maintenanceCautions } from '#shared/cautions.ts';
 import { performanceQuerySchema, performanceReportSchema } from '#shared/schemas/kpi-ops.ts';
@@ -32,7 +33,7 @@ function ndp(p: { pf: number; pc: number; pp: number; qf: number; qp: number; cf
 
 describe('a stage at constant conditions', () => {
   it('shows a 0 % change on every day, from the days the train ran throughout', async () => {
-    const report = performanceReportSchema.parse(await run({ asset: 'TR1-S1', detail: 'full' }));
+    const report = beforeFreshnessSchema(performanceReportSchema).parse(await run({ asset: 'TR1-S1', detail: 'full' }));
     expect(report.stages.map((s) => s.asset)).toEqual(['TR1-S1']);
     const stage = report.stages[0]!;
     expect(stage.train).toBe('TR1');
@@ -49,7 +50,7 @@ describe('a stage at constant conditions', () => {
     }
     expect(stage.latest!.state.netDrivingPressureBar).toBeCloseTo(ndp(stageBase), 10);
     // The default summary keeps the charted figures of each point and leaves the intermediates out.
-    const summary = performanceReportSchema.parse(await run({ asset: 'TR1-S1' })).stages[0]!.points[0]!;
+    const summary = beforeFreshnessSchema(performanceReportSchema).parse(await run({ asset: 'TR1-S1' })).stages[0]!.points[0]!;
     expect(summary.normalized.permeateFlowM3h).toBeCloseTo(stage.points[0]!.normalized.permeateFlowM3h!, 3);
     expect(summary.state.measuredConcentrateFlowM3h).toBeUndefined();
     expect(summary.normalized.permeateFlowChangePct).toBeCloseTo(0, 10);
@@ -73,17 +74,41 @@ describe('a stage at constant conditions', () => {
     ]);
   });
 
-  it('moves the baseline to the first day after an element change, not after the initial fill', async () => {
+  it('keeps the baseline through a single element swap, and the initial fill is no change', async () => {
     const stage = (await run({ asset: 'TR1-S1' })).stages[0]!;
-    // A-007 replaced A-001 on Jan 4 10:00 → the first day starting after it is Jan 5.
-    expect(stage.baseline).toMatchObject({ time: '2025-01-05T00:00:00.000Z', reason: 'after-reset', resetAt: '2025-01-04T10:00:00.000Z' });
-    expect(stage.resets).toEqual(['2025-01-04T10:00:00.000Z']);
+    // A-007 replaced A-001 on Jan 4 10:00: 1 of the stage's 6 positions (17 %), below the 20 % change-out
+    // default, so the baseline stays the first running day; the initial fill of Dec 31 is no change either.
+    expect(stage.baseline).toMatchObject({ time: '2025-01-01T00:00:00.000Z', reason: 'first-running-day', resetAt: null });
+    expect(stage.baseline!.setBy).toEqual({ kind: 'first-running-day', at: null, workOrder: null, elements: null });
+    expect(stage.resets).toEqual([]);
+  });
+
+  it('moves the baseline to the first day after a change-out of the set share, and says so', async () => {
+    await updateSettings(t.db, { baselineChangeOutSharePct: 15 }, 'test');
+    try {
+      const stage = (await run({ asset: 'TR1-S1' })).stages[0]!;
+      // Now 1 of 6 (17 %) reaches the share: the first day starting after Jan 4 10:00 is Jan 5.
+      expect(stage.baseline).toMatchObject({ time: '2025-01-05T00:00:00.000Z', reason: 'after-reset', resetAt: '2025-01-04T10:00:00.000Z' });
+      expect(stage.baseline!.setBy).toEqual({ kind: 'element-change-out', at: '2025-01-04T10:00:00.000Z', workOrder: null, elements: 1 });
+      expect(stage.resets).toEqual(['2025-01-04T10:00:00.000Z']);
+    } finally {
+      await updateSettings(t.db, { baselineChangeOutSharePct: 20 }, 'test');
+    }
+  });
+
+  it('takes the baseline from before the window when the window starts later', async () => {
+    const stage = (await run({ asset: 'TR1-S1', from: '2025-01-06T00:00:00Z' })).stages[0]!;
+    // No reset: the baseline is still the first running day of the data, Jan 1, outside the window; the
+    // points are the window's own days only.
+    expect(stage.baseline).toMatchObject({ time: '2025-01-01T00:00:00.000Z', reason: 'first-running-day', index: 0 });
+    expect(stage.points[0]!.state.time).toBe('2025-01-06T00:00:00.000Z');
+    expect(stage.points.every((p) => p.normalized.permeateFlowChangePct !== null && Math.abs(p.normalized.permeateFlowChangePct) < 1e-9)).toBe(true);
   });
 });
 
 describe('a stage with a planted 12 % permeate flow drop at equal temperature and pressures', () => {
   it('fires the flow alert, with its cautions', async () => {
-    const report = performanceReportSchema.parse(await run({ asset: 'TR1-S2', to: '2025-01-08T00:00:00Z' }));
+    const report = beforeFreshnessSchema(performanceReportSchema).parse(await run({ asset: 'TR1-S2', to: '2025-01-08T00:00:00Z' }));
     const stage = report.stages[0]!;
     // The initial fill of TR1-S2 on Jan 1 02:00 (first day of data) is not an element change.
     expect(stage.baseline).toMatchObject({ time: '2025-01-01T00:00:00.000Z', reason: 'first-running-day', resetAt: null });
@@ -105,6 +130,7 @@ describe('a stage with a planted 12 % permeate flow drop at equal temperature an
     const stage = (await run({ asset: 'TR1-S2' })).stages[0]!;
     // WO-8 (preventive, "Clean-in-place …") ends its out-of-service window on Jan 8 12:00 → baseline Jan 9.
     expect(stage.baseline).toMatchObject({ time: '2025-01-09T00:00:00.000Z', reason: 'after-reset', resetAt: '2025-01-08T12:00:00.000Z' });
+    expect(stage.baseline!.setBy).toEqual({ kind: 'cleaning', at: '2025-01-08T12:00:00.000Z', workOrder: 'WO-8', elements: null });
     expect(stage.latest!.normalized.permeateFlowChangePct).toBeCloseTo(0, 10);
     expect(stage.alerts).toEqual([]);
   });
@@ -137,7 +163,7 @@ describe('what counts as a cleaning', () => {
 describe('edges', () => {
   it('returns a stage without its needed tags with null figures and the missing quantities', async () => {
     const answer = await run({ asset: 'TR2' });
-    const report = performanceReportSchema.parse(answer);
+    const report = beforeFreshnessSchema(performanceReportSchema).parse(answer);
     const stage = answer.stages[0]!;
     expect(report.stages[0]).toMatchObject({ asset: 'TR2-S1', baseline: null, latest: null, points: [], alerts: [] });
     expect(stage.missingQuantities).toEqual([
@@ -158,14 +184,14 @@ describe('edges', () => {
   });
 
   it('answers a window without running data with no baseline, and says so', async () => {
-    const stage = performanceReportSchema.parse(await run({ asset: 'TR1-S1', from: '2024-06-01', to: '2024-07-01' })).stages[0]!;
+    const stage = beforeFreshnessSchema(performanceReportSchema).parse(await run({ asset: 'TR1-S1', from: '2024-06-01', to: '2024-07-01' })).stages[0]!;
     expect(stage.baseline).toBeNull();
     expect(stage.points).toEqual([]);
     expect(stage.notes.join(' ')).toMatch(/No running data in the window/);
   });
 
   it('answers a site without data', async () => {
-    const report = performanceReportSchema.parse(await getPerformance(t.db, performanceQuerySchema.parse({ site: 'EMPTY' })));
+    const report = beforeFreshnessSchema(performanceReportSchema).parse(await getPerformance(t.db, performanceQuerySchema.parse({ site: 'EMPTY' })));
     expect(report).toMatchObject({ from: null, to: null, stages: [] });
   });
 

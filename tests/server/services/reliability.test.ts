@@ -2,6 +2,7 @@
 // Every expected figure is worked by hand from the plant's description; chi-square quantiles come from jstat
 // (a reference library) and the bound formulas from NIST/SEMATECH e-Handbook of Statistical Methods §8.4.5.1
 // (time-terminated two-sided bounds: lower 2T/χ²(1−α/2; 2r+2), upper 2T/χ²(α/2; 2r); zero failures: T/(−ln(α/2))).
+import { beforeFreshnessSchema } from '#shared/schemas/common.ts';
 import jstat from 'jstat';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { reliabilityQuerySchema, reliabilityReportSchema } from '#shared/schemas/kpi.ts';
@@ -25,7 +26,7 @@ const chi2 = (p: number, dof: number) => jstat.jStat.chisquare.inv(p, dof);
 describe('reliability of a pump with two failures over a known running time', () => {
   it('gives MTBF = T/r with the handbook bounds, MTTR with the completed − reported fallback, and both availabilities', async () => {
     const report = await run({ asset: 'TR1-HPP' });
-    expect(reliabilityReportSchema.parse(report)).toBeTruthy();
+    expect(beforeFreshnessSchema(reliabilityReportSchema).parse(report)).toBeTruthy();
     // T: TR1.RUN (the pump's train) covers the whole window, 240 h, stopped 12 h + 8 h → 220 h running.
     expect(report.operatingTimeSource).toBe('ancestor-run-status');
     expect(report.operatingHours).toBeCloseTo(220, 9);
@@ -103,7 +104,7 @@ describe('zero failures', () => {
 describe('no run-status tag: the calendar fallback', () => {
   it('uses calendar time less the union of out-of-service windows, and names the fallback', async () => {
     const report = await run({ asset: 'TR2' });
-    expect(reliabilityReportSchema.parse(report).operatingTimeSource).toBe('calendar-less-out-of-service');
+    expect(beforeFreshnessSchema(reliabilityReportSchema).parse(report).operatingTimeSource).toBe('calendar-less-out-of-service');
     // 240 h less WO-6 (Jan 5 00–10) ∪ WO-7 (Jan 5 08–14) = 14 h → 226 h; one failure (WO-6, MOTOR).
     expect(report.operatingHours).toBeCloseTo(226, 9);
     expect(report.failures).toBe(1);
@@ -135,7 +136,7 @@ describe('no run-status tag: the calendar fallback', () => {
 describe('groups', () => {
   it('by asset: one group per asset with failures or a run-status tag, each over its own subtree', async () => {
     const report = await run({ asset: 'TR1', groupBy: 'asset' });
-    expect(reliabilityReportSchema.parse(report).groups?.map((g) => g.key)).toEqual(['asset=TR1', 'asset=TR1-HPP']);
+    expect(beforeFreshnessSchema(reliabilityReportSchema).parse(report).groups?.map((g) => g.key)).toEqual(['asset=TR1', 'asset=TR1-HPP']);
     const pump = report.groups.find((g) => g.key === 'asset=TR1-HPP')!;
     expect(pump).toMatchObject({ asset: 'TR1-HPP', failures: 2, operatingTimeSource: 'ancestor-run-status' });
     expect(pump.mtbfHours).toBeCloseTo(110, 9);
@@ -160,7 +161,7 @@ describe('edges', () => {
 
   it('answers a window without data with no operating time and reasons, not an error', async () => {
     const report = await run({ asset: 'TR1-HPP', from: '2024-06-01T00:00:00Z', to: '2024-07-01T00:00:00Z' });
-    expect(reliabilityReportSchema.parse(report)).toBeTruthy();
+    expect(beforeFreshnessSchema(reliabilityReportSchema).parse(report)).toBeTruthy();
     expect(report.operatingHours).toBe(0);
     expect(report.failures).toBe(0);
     expect(report.mtbfHours).toBeNull();
@@ -171,7 +172,7 @@ describe('edges', () => {
 
   it('answers a site without any data with a null window', async () => {
     const report = await getReliability(t.db, reliabilityQuerySchema.parse({ site: 'EMPTY' }));
-    expect(reliabilityReportSchema.parse(report)).toMatchObject({ from: null, to: null, operatingHours: 0, failures: 0, mtbfHours: null });
+    expect(beforeFreshnessSchema(reliabilityReportSchema).parse(report)).toMatchObject({ from: null, to: null, operatingHours: 0, failures: 0, mtbfHours: null });
     expect(report.reasons?.mtbfHours).toBe('no-data');
   });
 

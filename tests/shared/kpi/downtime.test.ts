@@ -1,3 +1,4 @@
+import { beforeFreshnessSchema } from '#shared/schemas/common.ts';
 import { describe, expect, it } from 'vitest';
 import {
   assetScope,
@@ -96,8 +97,10 @@ describe('downtime report (hand-worked plant)', () => {
       { asset: 'RO1', from: '2024-05-02T06:00:00.000Z', to: '2024-05-02T14:00:00.000Z', hours: 8, planned: true, cause: 'unknown', lostVolumeM3: 400 },
       // Unplanned; CM-1 overlaps 2 h > CM-2's 1.5 h → seal-leak. 3 h × 50 = 150 m³.
       { asset: 'RO1', from: '2024-05-04T00:00:00.000Z', to: '2024-05-04T03:00:00.000Z', hours: 3, planned: false, cause: 'seal-leak', lostVolumeM3: 150 },
-      // P-101's scope is itself only: CM-1 (01:00–04:30 overlap 3.5 h) → seal-leak; no rated flow → null.
-      { asset: 'P-101', from: '2024-05-04T00:30:00.000Z', to: '2024-05-04T04:30:00.000Z', hours: 4, planned: false, cause: 'seal-leak', lostVolumeM3: null },
+      // P-101 stopped 00:30–04:30, but RO1 above it was stopped until 03:00: that part is RO1's stop (counted
+      // once), the pump's own stop is 03:00–04:30. Its scope is itself only: CM-1 overlaps 1.5 h → seal-leak;
+      // no rated flow → null.
+      { asset: 'P-101', from: '2024-05-04T03:00:00.000Z', to: '2024-05-04T04:30:00.000Z', hours: 1.5, planned: false, cause: 'seal-leak', lostVolumeM3: null },
       // Open at the window end: cut at 8 May 00:00 (4 h). CM-3 cancelled, CM-4/IN-1 on RO2 → unplanned, unknown.
       { asset: 'RO1', from: '2024-05-07T20:00:00.000Z', to: '2024-05-08T00:00:00.000Z', hours: 4, planned: false, cause: 'unknown', lostVolumeM3: 200 },
     ]);
@@ -106,8 +109,9 @@ describe('downtime report (hand-worked plant)', () => {
   it('keeps the provenance and flags of each event', () => {
     const [first, second, pump, last] = report.events;
     expect(first).toMatchObject({ plannedBy: ['PM-1'], causeWorkOrder: null, clippedAtStart: false, clippedAtEnd: false, tag: 'RO1.RUN', cost: 340 });
-    expect(second).toMatchObject({ plannedBy: [], causeWorkOrder: 'CM-1', causeOverlapHours: 2, cost: 127.5 });
-    expect(pump).toMatchObject({ causeWorkOrder: 'CM-1', causeOverlapHours: 3.5, cost: null, tag: 'P101.RUN' });
+    expect(second).toMatchObject({ plannedBy: [], causeWorkOrder: 'CM-1', causeOverlapHours: 2, cost: 127.5, alsoStopped: ['P-101'] });
+    expect(pump).toMatchObject({ causeWorkOrder: 'CM-1', causeOverlapHours: 1.5, cost: null, tag: 'P101.RUN', clippedAtStart: false, alsoStopped: [] });
+    expect(first!.alsoStopped).toEqual([]);
     expect(last).toMatchObject({ clippedAtEnd: true, clippedAtStart: false, plannedBy: [], causeWorkOrder: null, cost: 170 });
   });
 
@@ -115,28 +119,29 @@ describe('downtime report (hand-worked plant)', () => {
     expect(report.totals.map(({ asset, events, hours, plannedHours, unplannedHours, lostVolumeM3, cost }) => ({ asset, events, hours, plannedHours, unplannedHours, lostVolumeM3, cost }))).toEqual([
       // 8 + 3 + 4 = 15 h; 750 m³ × 0.85 = 637.5.
       { asset: 'RO1', events: 3, hours: 15, plannedHours: 8, unplannedHours: 7, lostVolumeM3: 750, cost: 637.5 },
-      { asset: 'P-101', events: 1, hours: 4, plannedHours: 0, unplannedHours: 4, lostVolumeM3: null, cost: null },
+      { asset: 'P-101', events: 1, hours: 1.5, plannedHours: 0, unplannedHours: 1.5, lostVolumeM3: null, cost: null },
     ]);
   });
 
   it('builds the Pareto by cause, sorted descending with cumulative share', () => {
-    // unknown 8 + 4 = 12 h, seal-leak 3 + 4 = 7 h; of 19 h.
+    // unknown 8 + 4 = 12 h, seal-leak 3 + 1.5 = 4.5 h; of 16.5 h.
     expect(report.paretoByCause).toEqual([
-      { key: 'unknown', events: 2, hours: 12, plannedHours: 8, unplannedHours: 4, lostVolumeM3: 600, cost: 510, share: 12 / 19, cumulativeShare: 12 / 19 },
-      { key: 'seal-leak', events: 2, hours: 7, plannedHours: 0, unplannedHours: 7, lostVolumeM3: null, cost: null, share: 7 / 19, cumulativeShare: 1 },
+      { key: 'unknown', events: 2, hours: 12, plannedHours: 8, unplannedHours: 4, lostVolumeM3: 600, cost: 510, share: 12 / 16.5, cumulativeShare: 12 / 16.5 },
+      { key: 'seal-leak', events: 2, hours: 4.5, plannedHours: 0, unplannedHours: 4.5, lostVolumeM3: null, cost: null, share: 4.5 / 16.5, cumulativeShare: 1 },
     ]);
   });
 
   it('builds the Pareto by asset', () => {
     expect(report.paretoByAsset.map((r) => [r.key, r.hours, r.share, r.cumulativeShare])).toEqual([
-      ['RO1', 15, 15 / 19, 15 / 19],
-      ['P-101', 4, 4 / 19, 1],
+      ['RO1', 15, 15 / 16.5, 15 / 16.5],
+      ['P-101', 1.5, 1.5 / 16.5, 1],
     ]);
   });
 
   it('notes what it could not value and what it cut', () => {
     expect(report.notes).toEqual([
       'P-101 has no rated permeate flow: its lost volume and cost are null.',
+      "Stops of one asset that stopped while an asset above them was stopped too are counted once, in that asset's event (alsoStopped).",
       'Some stops were still open at the window end: they are cut there (clippedAtEnd).',
     ]);
   });
@@ -279,7 +284,7 @@ describe('asset scope', () => {
 
 describe('answer and query schemas', () => {
   it('accepts the report, with the keys of `kpi downtime --json`', () => {
-    const parsed = downtimeReportSchema.parse(downtimeReport(input));
+    const parsed = beforeFreshnessSchema(downtimeReportSchema).parse(downtimeReport(input));
     for (const key of ['asset', 'from', 'to', 'hours', 'planned', 'cause', 'lostVolumeM3']) expect(parsed.events[0]).toHaveProperty(key);
     for (const key of ['asset', 'events', 'hours', 'plannedHours', 'unplannedHours', 'lostVolumeM3', 'cost']) expect(parsed.totals[0]).toHaveProperty(key);
   });
@@ -311,5 +316,70 @@ describe('data ending inside the window', () => {
   it('changes nothing when the data reaches the window end, or when dataUntil is not given', () => {
     expect(report(t('2024-05-03T00:00:00Z')).events[0]!.hours).toBe(4);
     expect(report(null).events[0]!.hours).toBe(4);
+  });
+});
+
+describe('a train and the pump that stops with it', () => {
+  // Hand-worked: RO1 (train, 60 m³/h) stops 2 May 10:00–16:00; its pump P-101 (no rating of its own here,
+  // so the service would give it RO1's; this input gives it 60 directly) stops 09:00–17:00 that day and
+  // again 3 May 08:00–10:00 while the train runs.
+  const report = downtimeReport({
+    window,
+    assetTree: tree,
+    workOrders: [wo('CM-9', 'P-101', 'corrective', ['2024-05-02T09:00:00Z', '2024-05-02T17:00:00Z'], 'coupling')],
+    settings: { waterValuePerM3: 0.5 },
+    assets: [
+      { asset: 'RO1', ratedPermeateM3h: 60, runStatusTag: 'RO1.RUN', priorSample: s('2024-04-30T00:00:00Z', 1), samples: [s('2024-05-02T10:00:00Z', 0), s('2024-05-02T16:00:00Z', 1)] },
+      {
+        asset: 'P-101',
+        ratedPermeateM3h: 60,
+        runStatusTag: 'P101.RUN',
+        priorSample: s('2024-04-30T00:00:00Z', 1),
+        samples: [s('2024-05-02T09:00:00Z', 0), s('2024-05-02T17:00:00Z', 1), s('2024-05-03T08:00:00Z', 0), s('2024-05-03T10:00:00Z', 1)],
+      },
+    ],
+  });
+
+  it('counts the shared hours once, at train level, with the cause from the work order below it', () => {
+    expect(report.events.map((e) => [e.asset, e.from.slice(5, 16), e.to.slice(5, 16), e.hours, e.cause, e.alsoStopped])).toEqual([
+      ['P-101', '05-02T09:00', '05-02T10:00', 1, 'coupling', []],
+      ['RO1', '05-02T10:00', '05-02T16:00', 6, 'coupling', ['P-101']],
+      ['P-101', '05-02T16:00', '05-02T17:00', 1, 'coupling', []],
+      ['P-101', '05-03T08:00', '05-03T10:00', 2, 'unknown', []],
+    ]);
+  });
+
+  it('adds up to the same hours, volume and cost by asset, by cause and for the plant', () => {
+    // 6 + 1 + 1 + 2 = 10 h (not 6 + 8 + 2 = 16 h); 10 h × 60 m³/h = 600 m³; × 0.5 = 300.
+    expect(report.plant).toEqual({ events: 4, hours: 10, plannedHours: 0, unplannedHours: 10, lostVolumeM3: 600, cost: 300 });
+    for (const rows of [report.totals, report.paretoByCause, report.paretoByAsset]) {
+      expect(rows.reduce((a, r) => a + r.hours, 0)).toBeCloseTo(report.plant.hours, 9);
+      expect(rows.reduce((a, r) => a + r.lostVolumeM3!, 0)).toBeCloseTo(report.plant.lostVolumeM3!, 9);
+      expect(rows.reduce((a, r) => a + r.cost!, 0)).toBeCloseTo(report.plant.cost!, 9);
+      expect(rows.reduce((a, r) => a + r.events, 0)).toBe(report.plant.events);
+    }
+  });
+});
+
+describe('Pareto shares', () => {
+  it('end at exactly 1 whatever the durations (a sum of fractional hours once gave 1.0000000000000004)', () => {
+    // Stops of 0.1 h, 0.2 h and 0.7 h, ten times over: 0.1 + 0.2 + 0.7 in floating point is not 1.
+    const samples: RunStatusSample[] = [];
+    for (let day = 1; day <= 7; day++) {
+      let at = Date.UTC(2024, 4, day, 1);
+      for (const minutes of [6, 12, 42]) {
+        samples.push({ time: new Date(at), value: 0 }, { time: new Date(at + minutes * 60_000), value: 1 });
+        at += 3 * 3_600_000;
+      }
+    }
+    const causes = ['a', 'b', 'c'];
+    const orders = samples
+      .filter((x) => x.value === 0)
+      .map((x, i) => wo(`CM-${i}`, 'RO1', 'corrective', [x.time.toISOString(), new Date(x.time.getTime() + 42 * 60_000).toISOString()], causes[i % 3]));
+    const r = downtimeReport({ window, assetTree: tree, workOrders: orders, settings: { waterValuePerM3: 1 }, assets: [{ asset: 'RO1', ratedPermeateM3h: 1, runStatusTag: 'RO1.RUN', priorSample: s('2024-04-30T00:00:00Z', 1), samples }] });
+    expect(r.paretoByCause.map((p) => p.key)).toEqual(['c', 'b', 'a']);
+    expect(r.paretoByCause.at(-1)!.cumulativeShare).toBe(1);
+    expect(r.paretoByCause.every((p) => p.cumulativeShare <= 1 && p.share <= 1)).toBe(true);
+    expect(() => beforeFreshnessSchema(downtimeReportSchema).parse(r)).not.toThrow();
   });
 });

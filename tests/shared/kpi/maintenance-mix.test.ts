@@ -1,3 +1,4 @@
+import { beforeFreshnessSchema } from '#shared/schemas/common.ts';
 import { describe, expect, it } from 'vitest';
 import { maintenanceMix, pmComplianceDefinition, type MaintenanceMixInput, type MixWorkOrder } from '#shared/kpi/maintenance-mix.ts';
 import { maintenanceMixQuerySchema, maintenanceMixReportSchema } from '#shared/schemas/kpi-ops.ts';
@@ -168,9 +169,9 @@ describe('degenerate input: null with a reason, never NaN', () => {
 
 describe('answer and query schemas', () => {
   it('accepts the answer, including one full of nulls', () => {
-    expect(() => maintenanceMixReportSchema.parse(maintenanceMix(input))).not.toThrow();
+    expect(() => beforeFreshnessSchema(maintenanceMixReportSchema).parse(maintenanceMix(input))).not.toThrow();
     const empty = maintenanceMix({ window, workOrders: [], crewCapacityHoursPerWeek: null, producedM3: null });
-    expect(() => maintenanceMixReportSchema.parse(empty)).not.toThrow();
+    expect(() => beforeFreshnessSchema(maintenanceMixReportSchema).parse(empty)).not.toThrow();
   });
 
   it('parses the query with its default', () => {

@@ -11,6 +11,8 @@ import {
   defaultPerformanceSettings,
   feedBrineConcentration,
   netDrivingPressureBar,
+  baselineSetBy,
+  elementChangeOuts,
   normalizePerformance,
   normalizeState,
   osmoticPressureBar,
@@ -334,7 +336,7 @@ describe('baseline selection', () => {
     const before = { ...exampleA.actual, time: day('2024-05-01') };
     const cleaned = { ...exampleA.reference, time: day('2024-05-03') };
     const after = { ...exampleA.reference, time: day('2024-05-04') };
-    const result = normalizePerformance([after, before, cleaned], { resetTimes: [new Date('2024-05-02T12:00:00Z')] });
+    const result = normalizePerformance([after, before, cleaned], { resets: [{ at: new Date('2024-05-02T12:00:00Z'), kind: 'cleaning', workOrder: 'WO-C1', elements: null }] });
     expect(result.baseline?.index).toBe(1);
     expect(result.baseline?.time).toBe('2024-05-03T00:00:00.000Z');
     expect(result.points.map((p) => p.state.time)).toEqual(['2024-05-01T00:00:00.000Z', '2024-05-03T00:00:00.000Z', '2024-05-04T00:00:00.000Z']);
@@ -396,5 +398,33 @@ describe('answer and query schemas', () => {
       confidence: 0.9,
     });
     expect(performanceQuerySchema.safeParse({ feedBrineAverage: 'median' }).success).toBe(false);
+  });
+});
+
+describe('element change-outs that reset the baseline', () => {
+  const d = (iso: string) => new Date(iso);
+  // Hand-worked against the rule (common practice; defaults 20 % within 7 days): 40 positions → 8 elements needed.
+  it('ignores single swaps and dates a change-out by its last install', () => {
+    const swaps = [d('2025-01-03T10:00:00Z'), d('2025-02-10T09:00:00Z')];
+    const changeOut = Array.from({ length: 8 }, (_, i) => d(`2025-03-0${1 + (i % 5)}T0${i}:00:00Z`));
+    expect(elementChangeOuts(swaps, 40, { sharePct: 20, days: 7 })).toEqual([]);
+    expect(elementChangeOuts([...swaps, ...changeOut], 40, { sharePct: 20, days: 7 })).toEqual([
+      { at: d('2025-03-05T04:00:00Z'), from: d('2025-03-01T00:00:00Z'), elements: 8 },
+    ]);
+  });
+  it('does not join installs spread over more than the period', () => {
+    const spread = Array.from({ length: 8 }, (_, i) => d(new Date(Date.UTC(2025, 0, 1 + 2 * i)).toISOString()));
+    // Any 7-day stretch holds at most 4 of them (every other day).
+    expect(elementChangeOuts(spread, 40, { sharePct: 20, days: 7 })).toEqual([]);
+    expect(elementChangeOuts(spread, 40, { sharePct: 10, days: 7 })).toHaveLength(2);
+  });
+  it('answers nothing without positions or installs', () => {
+    expect(elementChangeOuts([d('2025-01-01T00:00:00Z')], 0, { sharePct: 20, days: 7 })).toEqual([]);
+    expect(elementChangeOuts([], 40, { sharePct: 20, days: 7 })).toEqual([]);
+  });
+  it('names the event that set the baseline', () => {
+    const resets = [{ at: d('2025-01-08T12:00:00Z'), kind: 'cleaning' as const, workOrder: 'WO-8', elements: null }];
+    expect(baselineSetBy('2025-01-08T12:00:00.000Z', resets)).toEqual({ kind: 'cleaning', at: '2025-01-08T12:00:00.000Z', workOrder: 'WO-8', elements: null });
+    expect(baselineSetBy(null, resets).kind).toBe('first-running-day');
   });
 });

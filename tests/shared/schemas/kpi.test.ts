@@ -16,6 +16,9 @@ import {
   timeToCompleteReportSchema,
 } from '#shared/schemas/kpi.ts';
 
+/** The freshness fields every KPI answer carries (shared/schemas/common.ts). */
+const fresh = { dataAsOf: { newestSampleAt: '2025-12-31T23:55:00.000Z', newestWorkOrderAt: null }, derivedUpToDate: true, warnings: [] };
+
 describe('window query', () => {
   it('defaults confidence to 0.9 and keeps dates as the raw strings', () => {
     expect(windowQuerySchema.parse({ from: '2025-01-01', to: '2025-07-01T06:00' })).toEqual({
@@ -78,6 +81,7 @@ describe('answers follow DESIGN §7', () => {
     const mtbf = mtbfWithBounds({ operatingHours: 8696, failures: 4, confidence: 0.9, terminated: 'time' });
     const mttr = mttrHours([10, 14, 6, 18]);
     const answer = {
+      ...fresh,
       asset: 'P-101',
       from: '2025-01-01T00:00:00.000Z',
       to: '2026-01-01T00:00:00.000Z',
@@ -99,6 +103,7 @@ describe('answers follow DESIGN §7', () => {
   it('reliability with no failures: nulls with reasons, never NaN', () => {
     const mtbf = mtbfWithBounds({ operatingHours: 800, failures: 0, confidence: 0.9, terminated: 'time' });
     const answer = {
+      ...fresh,
       asset: 'P-101',
       from: null,
       to: null,
@@ -124,6 +129,7 @@ describe('answers follow DESIGN §7', () => {
     const life = weibullLifeStats(fit);
     const km = kaplanMeier(times, events, 0.9);
     const answer = {
+      ...fresh,
       groups: [
         {
           key: 'position=1',
@@ -150,7 +156,7 @@ describe('answers follow DESIGN §7', () => {
       ],
     };
     expect(elementLifeReportSchema.parse(answer)).toEqual(answer);
-    expect(elementLifeReportSchema.safeParse({ groups: [{ ...answer.groups[1], key: 'colour=red' }] }).success).toBe(
+    expect(elementLifeReportSchema.safeParse({ ...answer, groups: [{ ...answer.groups[1], key: 'colour=red' }] }).success).toBe(
       false,
     );
   });
@@ -175,6 +181,7 @@ describe('answers follow DESIGN §7', () => {
       ],
     });
     const answer = {
+      ...fresh,
       quantileMethod: result.quantileMethod,
       groups: result.groups,
       jobs: result.jobs.map((j) => ({
@@ -201,6 +208,7 @@ describe('answers follow DESIGN §7', () => {
       costUpper: 434,
     };
     const answer = {
+      ...fresh,
       asOf: '2026-01-01T00:00:00.000Z',
       confidence: 0.9,
       groupBy: 'all',
