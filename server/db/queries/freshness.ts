@@ -22,9 +22,11 @@ export async function derivedLag(q: Queryable, siteCode: string): Promise<Derive
 }
 
 /**
- * The newest sample instant any import brought for the site's tags, and the newest work-order time
- * (reported, completed or back in service), each at or before `until`; null when there is none. Both
- * read indexes only (sample_coverage, work_orders_site_*): a few rows per request.
+ * The newest good sample in the site's hourly rollups and the newest work-order time (reported,
+ * completed or back in service), each before `until` (the window is half-open); null when there is
+ * none. The sample is the one the KPIs can use — it lags the import while derived data does (the
+ * answer then says so). Indexes only: one rollup row per tag (sample_hourly_key, read backwards) and
+ * the work_orders_site_* indexes.
  */
 export async function newestData(q: Queryable, siteCode: string, until: Date | null): Promise<{ sample: Date | null; workOrder: Date | null }> {
   const { rows } = await q.query<{ sample: Date | null; work_order: Date | null }>({
@@ -32,12 +34,14 @@ export async function newestData(q: Queryable, siteCode: string, until: Date | n
     text: `with s as (select id from sites where code = $1),
                 bound as (select coalesce($2::timestamptz, 'infinity'::timestamptz) as t)
            select
-             (select max(least(c.to_ts, (select t from bound))) from sample_coverage c join tags g on g.id = c.tag_id
-              where g.site_id = (select id from s) and c.from_ts <= (select t from bound)) as sample,
+             (select max(least(h.last_ts, (select t from bound) - interval '1 microsecond'))
+              from tags g cross join lateral (
+                select last_ts from sample_hourly where tag_id = g.id and hour < (select t from bound) order by hour desc limit 1) h
+              where g.site_id = (select id from s)) as sample,
              greatest(
-               (select max(reported_at) from work_orders where site_id = (select id from s) and reported_at <= (select t from bound)),
+               (select max(reported_at) from work_orders where site_id = (select id from s) and reported_at < (select t from bound)),
                (select max(greatest(reported_at, completed_at, out_of_service_to)) from work_orders
-                where site_id = (select id from s) and greatest(reported_at, completed_at, out_of_service_to) <= (select t from bound))
+                where site_id = (select id from s) and greatest(reported_at, completed_at, out_of_service_to) < (select t from bound))
              ) as work_order`,
     values: [siteCode, until],
   });
