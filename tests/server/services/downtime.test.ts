@@ -5,7 +5,6 @@ import { beforeFreshnessSchema } from '#shared/schemas/common.ts';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { downtimeQuerySchema, downtimeReportSchema } from '#shared/schemas/kpi-ops.ts';
 import { getDowntime } from '#server/services/downtime.ts';
-import { importText } from '../importers/helpers.ts';
 import { updateSettings } from '#server/services/settings.ts';
 import { createTestDatabase, type TestDatabase } from '../../setup/db.ts';
 import { SITE, seedEmptySite, seedOpsPlant } from './ops-plant.ts';

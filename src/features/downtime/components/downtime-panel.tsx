@@ -4,11 +4,12 @@ import { ChartFrame } from '../../../components/charts/chart-frame.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { NotesDetails } from '../../../components/ui/notes-details.tsx';
 import { ProvenanceDetails } from '../../../components/ui/provenance-details.tsx';
-import { formatDate, formatMoney } from '../../../lib/format.ts';
+import { formatDate, formatHours, formatMoney } from '../../../lib/format.ts';
 import { useDowntime, type DowntimeParams } from '../api/get-downtime.ts';
 import { causeLabel } from '../utils/labels.ts';
 import { DowntimeEventsTable, DowntimeTotalsTable } from './downtime-tables.tsx';
 import type { ParetoBar } from './pareto-chart.tsx';
+import { FreshnessBanner } from '../../../components/ui/freshness-banner.tsx';
 
 const ParetoChart = lazy(() => import('./pareto-chart.tsx').then((m) => ({ default: m.ParetoChart })));
 
@@ -36,6 +37,7 @@ export function DowntimePanel({ params, currency }: { params: DowntimeParams; cu
   const report = useDowntime(params);
   return (
     <div className="space-y-6">
+      <FreshnessBanner answer={report} />
       <p className="text-sm text-basin-700">
         Stops from the run-status tags, {formatDate(report.from)} – {formatDate(report.to)}. A stop is planned when it overlaps the out-of-service
         window of a preventive or inspection work order; its cause is the failure code of the corrective work order that overlaps it most. Lost
@@ -48,8 +50,9 @@ export function DowntimePanel({ params, currency }: { params: DowntimeParams; cu
       <div className="space-y-2">
         <DowntimeTotalsTable totals={report.totals} currency={currency} />
         <p className="text-xs text-basin-600">
-          Each row counts the stops of one asset’s own run-status tag. A train stops with its high-pressure pump, so the rows of a train and of its
-          pumps can describe the same hours: read them side by side rather than adding them up.
+          Each stop is counted once: when a pump stops with its train, the hours are the train’s (the stop lists the assets that stopped with it);
+          a pump’s own stop while its train runs is the pump’s. The rows add up to the plant’s {formatHours(report.plant.hours)} h in{' '}
+          {report.plant.events} stops.
         </p>
       </div>
       <DowntimeEventsTable events={report.events} currency={currency} />

@@ -3,6 +3,7 @@ import { Card } from '../../../components/ui/card.tsx';
 import { formatHours, formatMoney, formatNumber, formatShare, formatVolume } from '../../../lib/format.ts';
 import { useDowntime, type DowntimeParams } from '../api/get-downtime.ts';
 import { causeLabel } from '../utils/labels.ts';
+import { FreshnessBanner } from '../../../components/ui/freshness-banner.tsx';
 
 /** Dashboard: down time, lost permeate and its cost by asset, and the causes that took the most hours. */
 export function DowntimeSummaryCard({ params, currency, footer }: { params: DowntimeParams; currency: string; footer?: ReactNode }) {
@@ -12,6 +13,7 @@ export function DowntimeSummaryCard({ params, currency, footer }: { params: Down
   const longest = Math.max(...causes.map((c) => c.hours), 1);
   return (
     <Card title="Downtime" description={`${formatNumber(report.events.length, 0)} stops of the assets with a run-status tag.`}>
+      <FreshnessBanner answer={report} compact />
       {assets.length === 0 ? (
         <p className="text-sm text-basin-600">No stops in this window.</p>
       ) : (

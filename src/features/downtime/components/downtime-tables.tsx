@@ -77,6 +77,12 @@ export function DowntimeEventsTable({ events, currency }: { events: readonly Eve
         </span>
       ),
     },
+    {
+      id: 'with',
+      header: 'Stopped with it',
+      sortValue: (e) => e.alsoStopped.join(' '),
+      cell: (e) => (e.alsoStopped.length > 0 ? <span className="font-mono text-xs">{e.alsoStopped.join(', ')}</span> : <span className="text-basin-500">—</span>),
+    },
     { id: 'lost', header: 'Lost permeate', align: 'right', sortValue: (e) => e.lostVolumeM3, cell: (e) => formatVolume(e.lostVolumeM3) },
     { id: 'cost', header: 'Cost', align: 'right', sortValue: (e) => e.cost, cell: (e) => formatMoney(e.cost, currency) },
   ];

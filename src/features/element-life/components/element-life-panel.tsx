@@ -10,6 +10,7 @@ import { useElementLife, type ElementLifeParams } from '../api/get-element-life.
 import { survivalSteps } from '../utils/km.ts';
 import { groupByLabels, groupKeyLabel } from '../utils/params.ts';
 import { WeibullTable } from './weibull-table.tsx';
+import { FreshnessBanner } from '../../../components/ui/freshness-banner.tsx';
 
 const SurvivalChart = lazy(() => import('./survival-chart.tsx').then((m) => ({ default: m.SurvivalChart })));
 
@@ -24,6 +25,7 @@ export function ElementLifePanel({ params }: { params: ElementLifeParams }) {
 
   return (
     <div className="space-y-6">
+      <FreshnessBanner answer={report} />
       <Card
         title="Element survival (Kaplan–Meier)"
         description={

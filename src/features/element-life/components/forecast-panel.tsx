@@ -14,6 +14,7 @@ import type { ElementLifeParams } from '../api/get-element-life.ts';
 import { forecastTotals, monthLabel } from '../utils/forecast.ts';
 import { groupKeyLabel } from '../utils/params.ts';
 import type { ForecastBar } from './forecast-chart.tsx';
+import { FreshnessBanner } from '../../../components/ui/freshness-banner.tsx';
 
 const ForecastChart = lazy(() => import('./forecast-chart.tsx').then((m) => ({ default: m.ForecastChart })));
 
@@ -76,6 +77,7 @@ export function ForecastPanel({ params, currency }: { params: ElementLifeParams;
         </>
       }
     >
+      <FreshnessBanner answer={report} />
       <div className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_20rem]">
         <div className="min-w-0 space-y-5">
           <dl className="grid grid-cols-2 gap-x-6 gap-y-3 sm:grid-cols-3">

@@ -4,6 +4,7 @@ import { formatDate, formatMoney, formatNumber, formatShare } from '../../../lib
 import { useForecast } from '../api/get-forecast.ts';
 import type { ElementLifeParams } from '../api/get-element-life.ts';
 import { forecastTotals, monthLabel, monthShortLabel } from '../utils/forecast.ts';
+import { FreshnessBanner } from '../../../components/ui/freshness-banner.tsx';
 
 /** Dashboard: expected element replacements and their cost over the next 12 months, with the busiest months. */
 export function ForecastSummaryCard({ params, currency, footer }: { params: ElementLifeParams; currency: string; footer?: ReactNode }) {
@@ -14,6 +15,7 @@ export function ForecastSummaryCard({ params, currency, footer }: { params: Elem
   const top = Math.max(...report.totals.map((m) => m.expectedCount), 1e-9);
   return (
     <Card title="Element replacements, next 12 months" description={`Forecast from the Weibull fit for the ${formatNumber(inService, 0)} elements in service on ${formatDate(report.asOf)}.`}>
+      <FreshnessBanner answer={report} compact />
       <dl className="grid grid-cols-2 gap-x-6 gap-y-3">
         <div>
           <dt className="text-sm text-basin-600">Expected replacements</dt>

@@ -2,6 +2,7 @@ import type { ReactNode } from 'react';
 import { Card } from '../../../components/ui/card.tsx';
 import { formatHours, formatMoney, formatNumber, formatShare } from '../../../lib/format.ts';
 import { useMaintenanceMix, type MaintenanceMixParams } from '../api/get-maintenance-mix.ts';
+import { FreshnessBanner } from '../../../components/ui/freshness-banner.tsx';
 
 function Figure({ label, value, detail }: { label: string; value: string; detail?: ReactNode }) {
   return (
@@ -45,6 +46,7 @@ export function MaintenanceMixCard({ params, currency, footer }: { params: Maint
   const { labour, pmCompliance: pm, backlog, cost } = mix;
   return (
     <Card title="Maintenance mix" description={`${formatHours(labour.totalHours, 0)} of labour on ${formatNumber(labour.workOrders.length, 0)} work orders.`}>
+      <FreshnessBanner answer={mix} compact />
       {labour.plannedShare !== null && labour.reactiveShare !== null ? (
         <MixBar planned={labour.plannedShare} reactive={labour.reactiveShare} improvement={labour.improvementShare ?? 0} />
       ) : (

@@ -10,6 +10,7 @@ import { usePerformance, type PerformanceParams } from '../api/get-performance.t
 import { allAlerts } from '../utils/labels.ts';
 import { AlertsList } from './alerts-list.tsx';
 import { StageCard } from './stage-card.tsx';
+import { FreshnessBanner } from '../../../components/ui/freshness-banner.tsx';
 
 /** Performance page body: the alerts with the cleaning cautions, then one card per stage. */
 export function PerformancePanel({ params }: { params: PerformanceParams }) {
@@ -20,6 +21,7 @@ export function PerformancePanel({ params }: { params: PerformanceParams }) {
   }
   return (
     <div className="space-y-6">
+      <FreshnessBanner answer={report} />
       <Card
         title="Alerts"
         description={`Normalized performance beyond the alert thresholds of the settings, ${report.from ? `${formatDate(report.from)} – ${formatDate(report.to)}` : 'in the window'}.`}

@@ -62,10 +62,13 @@ function QuantityColumn({ q, stage }: { q: Quantity; stage: Stage }) {
 export function StageCard({ stage }: { stage: Stage }) {
   const t = stage.settings;
   const baseline = stage.baseline;
+  const setBy = baseline?.setBy;
   const baselineText = baseline
-    ? baseline.reason === 'after-reset'
-      ? `Baseline ${formatDate(baseline.time)}: the first running day after the element change or cleaning of ${formatDateTime(baseline.resetAt)}.`
-      : `Baseline ${formatDate(baseline.time)}: the first running day of the data.`
+    ? setBy?.kind === 'cleaning'
+      ? `Baseline ${formatDate(baseline.time)}: the first running day after the cleaning ${setBy.workOrder ?? ''} ended on ${formatDateTime(setBy.at)}.`
+      : setBy?.kind === 'element-change-out'
+        ? `Baseline ${formatDate(baseline.time)}: the first running day after ${setBy.elements} ${setBy.elements === 1 ? 'element was' : 'elements were'} replaced (change-out ending ${formatDateTime(setBy.at)}).`
+        : `Baseline ${formatDate(baseline.time)}: the first running day of the data (no cleaning or element change-out since).`
     : 'No baseline: the stage has no day of complete running data in this window.';
 
   return (

@@ -11,6 +11,7 @@ import { groupLabel } from '../utils/labels.ts';
 import type { MtbfBar } from './mtbf-chart.tsx';
 import { ReliabilitySummary } from './reliability-summary.tsx';
 import { ReliabilityTable } from './reliability-table.tsx';
+import { FreshnessBanner } from '../../../components/ui/freshness-banner.tsx';
 
 const MtbfChart = lazy(() => import('./mtbf-chart.tsx').then((m) => ({ default: m.MtbfChart })));
 
@@ -39,6 +40,7 @@ export function ReliabilityPanel({ params }: { params: ReliabilityParams }) {
 
   return (
     <div className="space-y-6">
+      <FreshnessBanner answer={report} />
       <Card
         title={report.asset ? `Reliability of ${report.asset}` : 'Reliability of the site'}
         description={

@@ -5,6 +5,7 @@ import { nullReasonText } from '../../../lib/null-reason.ts';
 import { useReliability } from '../api/get-reliability.ts';
 import type { KpiWindow } from '../../../lib/kpi-window.ts';
 import { topLevelGroups } from '../utils/labels.ts';
+import { FreshnessBanner } from '../../../components/ui/freshness-banner.tsx';
 
 /** Dashboard: availability and MTBF of each train (the top-level assets), with the site's figures under them. */
 export function TrainReliabilityCard({ params, footer }: { params: KpiWindow; footer?: ReactNode }) {
@@ -12,6 +13,7 @@ export function TrainReliabilityCard({ params, footer }: { params: KpiWindow; fo
   const trains = topLevelGroups(report.groups ?? []).sort((a, b) => (a.asset ?? '').localeCompare(b.asset ?? '', undefined, { numeric: true }));
   return (
     <Card title="Trains" description="Availability and mean time between failures of each train, counting the failures of everything in it.">
+      <FreshnessBanner answer={report} compact />
       {trains.length === 0 ? (
         <p className="text-sm text-basin-600">No train had a failure in this window, so there is no MTBF to show.</p>
       ) : (

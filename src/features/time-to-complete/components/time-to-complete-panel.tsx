@@ -11,6 +11,7 @@ import { GroupsTable } from './groups-table.tsx';
 import { GuidedComparison } from './guided-comparison.tsx';
 import { JobsTable } from './jobs-table.tsx';
 import type { LearningPoint } from './learning-curve-chart.tsx';
+import { FreshnessBanner } from '../../../components/ui/freshness-banner.tsx';
 
 const LearningCurveChart = lazy(() => import('./learning-curve-chart.tsx').then((m) => ({ default: m.LearningCurveChart })));
 
@@ -25,6 +26,7 @@ export function TimeToCompletePanel({ params }: { params: TimeToCompleteParams }
 
   return (
     <div className="space-y-6">
+      <FreshnessBanner answer={report} />
       <div className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_22rem]">
         <GuidedComparison groups={report.groups} />
         <SafetyNote cautions={vesselWorkCautions} className="self-start" />
