@@ -2,6 +2,7 @@
 // holds the invented demo plant (imported through the importers, then refreshed). Each page is opened
 // by a role that may read it; its key figures must match the API's answer, read nothing like NaN or
 // "undefined", and raise no console error. Every step leaves a screenshot in tests/e2e/screenshots/.
+import { spawnSync } from 'node:child_process';
 import { mkdirSync, mkdtempSync } from 'node:fs';
 import type { Server } from 'node:http';
 import { tmpdir } from 'node:os';
@@ -22,6 +23,7 @@ import { buildClient, launchChromium, listen, tearDown } from './harness.ts';
 import { createTestApp, rolePasswords, type TestApp } from '../setup/app.ts';
 
 const shotsDir = fileURLToPath(new URL('./screenshots', import.meta.url));
+const osmia = fileURLToPath(new URL('../../bin/osmia', import.meta.url));
 
 let t: TestApp;
 let server: Server;
@@ -411,6 +413,36 @@ describe('the KPI pages with the demo plant', () => {
     expect(overflow).toBe(0);
     await mainText(s.page);
     await shot(s.page, 'kpi-dashboard-phone');
+    await closeSession(s);
+  });
+  it('one window, the same figures: the downtime page, the API and the CLI agree', async () => {
+    const window = { from: '2026-01-01', to: '2026-07-01' };
+    const report = await api('manager', `/api/kpi/downtime?from=${window.from}&to=${window.to}`, downtimeReportSchema);
+    expect(report.plant.events).toBeGreaterThan(0);
+    // The CLI computes the same object from the same database.
+    const cli = spawnSync(osmia, ['kpi', 'downtime', '--from', window.from, '--to', window.to, '--json'], {
+      env: { ...process.env, DATABASE_URL: t.url, CI: '1' },
+      encoding: 'utf8',
+      timeout: 120_000,
+    });
+    expect(cli.status, cli.stderr).toBe(0);
+    expect(downtimeReportSchema.parse(JSON.parse(cli.stdout))).toEqual(report);
+    // The page's headline figures for the window in its address.
+    const s = await openSession();
+    await signIn(s, 'manager', `/downtime?from=${window.from}&to=${window.to}`);
+    await heading(s.page, 'Downtime');
+    await chartsDrawn(s.page, 2);
+    const text = await mainText(s.page);
+    const hours = new Intl.NumberFormat('en-GB', { maximumFractionDigits: 1 }).format(report.plant.hours);
+    expect(text).toContain(`add up to the plant’s ${hours} h in ${report.plant.events} stops`);
+    expect(text).toContain(`${int(report.events.length)} stops`);
+    const totals = s.page.getByRole('table', { name: 'Down time by asset' });
+    for (const total of report.totals.filter((x) => x.events > 0)) {
+      const row = await totals.getByRole('row').filter({ has: s.page.getByText(total.asset, { exact: true }) }).innerText();
+      expect(row, total.asset).toContain(`${int(total.lostVolumeM3!)} m³`);
+      expect(row, total.asset).toContain(euros(total.cost!));
+    }
+    await shot(s.page, 'downtime-window-manager');
     await closeSession(s);
   });
 });

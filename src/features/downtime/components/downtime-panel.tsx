@@ -51,7 +51,7 @@ export function DowntimePanel({ params, currency }: { params: DowntimeParams; cu
         <DowntimeTotalsTable totals={report.totals} currency={currency} />
         <p className="text-xs text-basin-600">
           Each stop is counted once: when a pump stops with its train, the hours are the train’s (the stop lists the assets that stopped with it);
-          a pump’s own stop while its train runs is the pump’s. The rows add up to the plant’s {formatHours(report.plant.hours)} h in{' '}
+          a pump’s own stop while its train runs is the pump’s. The rows add up to the plant’s {formatHours(report.plant.hours)} in{' '}
           {report.plant.events} stops.
         </p>
       </div>
