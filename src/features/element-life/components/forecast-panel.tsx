@@ -72,7 +72,7 @@ export function ForecastPanel({ params, currency }: { params: ElementLifeParams;
       description={
         <>
           Expected life-ending element events from the Weibull fit, for the {formatNumber(inService, 0)} elements in service at the window’s end ({formatDate(report.asOf)}),
-          however long before the window they were installed, each at its age then; priced at the element unit cost.{' '}
+          each at its age then; priced at the element unit cost.{' '}
           {forecastInService < inService && `${formatNumber(inService - forecastInService, 0)} of them have no Weibull fit and are not forecast (see the notes). `}
           {report.renewal ? 'Replacements that fail again are counted.' : 'First events only: a replacement that fails again is not counted.'}
         </>
