@@ -3,13 +3,16 @@ import { nullReasonMessages } from '#shared/kpi/stats.ts';
 import type { ElementLifeReport } from '#shared/schemas/kpi.ts';
 import { formatNumber, formatTable } from '../output.ts';
 
-/** A plain-text report of element life: window, one row per group, then why any figure is missing. */
+/**
+ * A plain-text report of element life: window, one row per group, why any figure is missing, then how
+ * lives crossing the window's edges were treated (the answer's own sentence when it gives one).
+ */
 export function formatElementLife(report: ElementLifeReport): string {
   const lines: string[] = [];
   const confidence = report.confidence ?? 0.9;
   lines.push(
     `Element life${report.site ? ` — site ${report.site}` : ''}, grouped by ${report.groupBy ?? 'all'}` +
-      `${report.from && report.to ? `, installed ${report.from} to ${report.to}` : ''}`,
+      `${report.from && report.to ? `, lives in service from ${report.from} to ${report.to}` : ''}`,
   );
   const pct = formatNumber(confidence * 100, 1);
   lines.push(
@@ -35,6 +38,8 @@ export function formatElementLife(report: ElementLifeReport): string {
     return g.weibull === null && reason ? [`${g.key}: no Weibull fit — ${nullReasonMessages[reason]}`] : [];
   });
   if (missing.length > 0) lines.push(...missing);
-  lines.push('Lives still in service at the window end are censored there; B10, median and mean come from the Weibull fit.');
+  lines.push(report.windowTreatment?.text ?? 'Lives still in service at the window end are censored there.');
+  for (const note of report.notes ?? []) if (note !== report.windowTreatment?.text) lines.push(`Note: ${note}`);
+  lines.push('B10, median and mean come from the Weibull fit.');
   return lines.join('\n');
 }

@@ -44,8 +44,15 @@ export interface ElementLifeObservation {
   key: string;
   /** Days from installation to removal, or to the window end when it was still in service then. */
   days: number;
+  /**
+   * Age in days at which the window first sees the life: its age at `from` when it was installed
+   * before `from` (delayed entry), else 0. Always below `days`.
+   */
+  entryDays: number;
   /** true when the removal reason ends a life (failed, performance, damaged). */
   event: boolean;
+  /** true when still in service at `to`, or removed at or after it: censored at its age at `to`. */
+  censoredAtEnd: boolean;
 }
 
 /**
@@ -109,14 +116,21 @@ export function compareGroupKeys(a: string, b: string): number {
 }
 
 /**
- * The lives the window lets us observe. Rule: the installs made in [from, to) — a cohort by
- * installation date — each followed until its removal or until `to`, whichever comes first.
- * A removal at or after `to` has not happened yet as far as the window knows: that life is censored
- * at `to`, as is one still in service. A removal before `to` is a life-ending event when its reason
- * is failed, performance or damaged, and a censoring (planned, relocated, sampled, none) otherwise.
- * Why a cohort rather than "every life that touches the window": keeping only lives still running at
- * `from` would drop the short ones that ended before it (a bias towards long lives) unless the fit
- * allowed for delayed entry, which the shared fit does not. A null `from` is open.
+ * The lives the window [from, to) lets us observe: every element life that overlaps it.
+ * - Installed before `to`; installed before `from` only if still in service after `from` (a life
+ *   removed at or before `from` has no time at risk in the window and is left out).
+ * - A life installed before `from` enters at its age at `from` (`entryDays`): delayed entry, so the
+ *   survival maths counts it at risk only from that age and the Weibull fit conditions on its
+ *   surviving to it (left truncation; Klein & Moeschberger, Survival Analysis, 2nd ed., ch. 4).
+ *   Why not drop those lives: an element installed before the window and failing in it is exactly
+ *   what a window of the last year should see. Why not start them at 0: their survival to `from`
+ *   was never at stake in the window, and counting it would bias the lives long.
+ * - A removal at or after `to` has not happened yet as far as the window knows: that life is
+ *   censored at its age at `to`, as is one still in service. A removal in [from, to) is a
+ *   life-ending event when its reason is failed, performance or damaged, and a censoring (planned,
+ *   relocated, sampled, none) otherwise.
+ * A null `from` is open: every life enters at 0. So does every life when `from` is the start of the
+ * data (the default window), which gives the plain right-censored answer.
  */
 export function observeLives(
   installs: readonly ElementInstall[],
@@ -130,7 +144,9 @@ export function observeLives(
   for (const install of installs) {
     const place = places.get(install.vesselId);
     if (!place) continue;
-    if (install.installedAt >= to || (from !== null && install.installedAt < from)) continue;
+    if (install.installedAt >= to) continue;
+    const late = from !== null && install.installedAt < from;
+    if (late && install.removedAt !== null && install.removedAt <= from) continue;
     const removedInWindow = install.removedAt !== null && install.removedAt < to;
     const end = removedInWindow ? install.removedAt! : to;
     out.push({
@@ -138,10 +154,33 @@ export function observeLives(
       install,
       key: elementGroupKey(groupBy, install, place),
       days: (end.getTime() - install.installedAt.getTime()) / DAY_MS,
+      // end > from for a late life, so entryDays < days.
+      entryDays: late ? (from.getTime() - install.installedAt.getTime()) / DAY_MS : 0,
       event: removedInWindow && install.removalReason !== null && lifeEnding.has(install.removalReason),
+      censoredAtEnd: !removedInWindow,
     });
   }
   return out;
+}
+
+export type WindowTreatment = NonNullable<ElementLifeReport['windowTreatment']>;
+
+/** How many lives crossed the window's edges, and the sentence that says how they were treated. */
+export function windowTreatmentOf(lives: readonly ElementLifeObservation[]): WindowTreatment {
+  const enteredLate = lives.filter((l) => l.entryDays > 0).length;
+  const censoredAtEnd = lives.filter((l) => l.censoredAtEnd).length;
+  const lifeWord = (n: number) => (n === 1 ? 'life' : 'lives');
+  const start =
+    enteredLate > 0
+      ? `Every element life overlapping the window is used (${lives.length}). ${enteredLate} ${lifeWord(enteredLate)} began before the window's start ` +
+        'and enter at their age then: they count at risk only from that age on, and the Weibull fit takes their survival to it as given ' +
+        '(delayed entry, left truncation). Lives that ended before the window are left out.'
+      : `Every element life in the window (${lives.length}) is observed from its installation.`;
+  const end =
+    censoredAtEnd > 0
+      ? ` ${censoredAtEnd} ${censoredAtEnd === 1 ? 'was' : 'were'} still in service at the window's end (or removed later) and ${censoredAtEnd === 1 ? 'is' : 'are'} censored at ${censoredAtEnd === 1 ? 'its age' : 'their age'} then.`
+      : '';
+  return { enteredLate, censoredAtEnd, text: `${start}${end} Events are the failed, performance and damaged removals inside the window.` };
 }
 
 /** Lives grouped by key, groups in key order; with groupBy all, the `all` group is always there. */
@@ -180,9 +219,12 @@ function finiteOrNull(x: number): number | null {
 export function elementLifeGroup(key: string, lives: readonly ElementLifeObservation[], confidence: number): ElementLifeGroup {
   const times = lives.map((l) => l.days);
   const events = lives.map((l) => l.event);
+  const enteredLate = lives.filter((l) => l.entryDays > 0).length;
+  // Without late entries, no entry ages at all: the plain right-censored computation, unchanged.
+  const entries = enteredLate > 0 ? lives.map((l) => l.entryDays) : undefined;
   const reasons: Record<string, NullReason> = {};
-  const km = kaplanMeier(times, events, confidence);
-  const result = fitWeibull(times, events, { confidence });
+  const km = kaplanMeier(times, events, confidence, entries);
+  const result = fitWeibull(times, events, { confidence, ...(entries ? { entries } : {}) });
   let weibull: ElementLifeGroup['weibull'] = null;
   let b10Days: number | null = null;
   let medianDays: number | null = null;
@@ -204,7 +246,12 @@ export function elementLifeGroup(key: string, lives: readonly ElementLifeObserva
   if (km.median === null) reasons['kmMedianDays'] = km.reason ?? 'not-reached';
   if (km.medianLower === null) reasons['kmMedianLowerDays'] = km.rows.length === 0 ? 'no-data' : 'not-reached';
   if (km.medianUpper === null) reasons['kmMedianUpperDays'] = km.rows.length === 0 ? 'no-data' : 'not-reached';
-  const mrr = weibullMedianRankRegression(times, events);
+  // Median ranks have no delayed-entry form: the regression uses the lives seen from installation.
+  const fromInstall = enteredLate > 0 ? lives.filter((l) => l.entryDays === 0) : lives;
+  const mrr = weibullMedianRankRegression(
+    fromInstall.map((l) => l.days),
+    fromInstall.map((l) => l.event),
+  );
   let medianRankRegression: ElementLifeGroup['medianRankRegression'] = null;
   if (mrr.fit === null) reasons['medianRankRegression'] = mrr.reason;
   else if (mrr.fit.yOnX.shape > 0 && mrr.fit.xOnY.shape > 0) {
@@ -219,6 +266,7 @@ export function elementLifeGroup(key: string, lives: readonly ElementLifeObserva
     key,
     n: lives.length,
     events: events.filter(Boolean).length,
+    enteredLate,
     weibull,
     b10Days,
     medianDays,
@@ -245,12 +293,15 @@ export function elementLifeGroup(key: string, lives: readonly ElementLifeObserva
  * Element life by group (DESIGN §6). For each element install in the vessels of the scope:
  * life = removal − installation in days (real elapsed time), a life-ending event when the removal
  * reason is failed, performance or damaged, else censored; the window rule is `observeLives`'s
- * (installs made in [from, to), lives still running at `to` censored there). Per group: n, events,
- * Kaplan–Meier survival with Greenwood log-transformed bounds and its median (Kaplan & Meier 1958,
- * as R survival::survfit), a two-parameter Weibull fitted by maximum likelihood with right censoring
- * and likelihood-ratio intervals at the query's confidence (NIST/SEMATECH e-Handbook §8.4.1.2;
+ * (every life overlapping [from, to); one begun before `from` enters at its age then, one still
+ * running at `to` is censored there; `windowTreatment` and `notes` say how many). Per group: n,
+ * events, Kaplan–Meier survival with Greenwood log-transformed bounds and its median (Kaplan & Meier
+ * 1958, as R survival::survfit; risk sets with delayed entry, Klein & Moeschberger ch. 4), a
+ * two-parameter Weibull fitted by maximum likelihood with right censoring and left truncation and
+ * likelihood-ratio intervals at the query's confidence (NIST/SEMATECH e-Handbook §8.4.1.2;
  * Lawless ch. 5), B10 = η(−ln 0.9)^{1/β}, median = η(ln 2)^{1/β}, mean = ηΓ(1 + 1/β) in days, and a
- * median-rank regression (Bernard ranks, Johnson's adjustment) for comparison.
+ * median-rank regression (Bernard ranks, Johnson's adjustment) of the lives seen from installation
+ * for comparison.
  * Degenerate input: no elements → the `all` group with n = 0 and null figures ('no-data');
  * all censored → null fit ('no-events') with the KM curve flat at 1 ('not-reached'); every event at
  * the longest age → null fit ('shape-diverges'). Never NaN. Provenance: element serials (at most
@@ -260,6 +311,13 @@ export async function getElementLife(db: Db, query: ElementLifeQuery): Promise<B
   const { scope, places, installs } = await elementScope(db, query);
   const lives = scope.to === null ? [] : observeLives(installs, places, query.groupBy, scope.from, scope.to);
   const groups = [...groupLives(lives, query.groupBy)].map(([key, list]) => elementLifeGroup(key, list, query.confidence));
+  const windowTreatment = windowTreatmentOf(lives);
+  const notes = [windowTreatment.text];
+  if (windowTreatment.enteredLate > 0) {
+    notes.push(
+      `The median-rank regression (a cross-check) uses only the ${lives.length - windowTreatment.enteredLate} lives seen from their installation: median ranks have no form for delayed entry.`,
+    );
+  }
   const provenance: Provenance & { elementCount: number } = {
     workOrders: [],
     tags: [],
@@ -269,7 +327,8 @@ export async function getElementLife(db: Db, query: ElementLifeQuery): Promise<B
             {
               from: scope.from.toISOString(),
               to: scope.to.toISOString(),
-              what: 'elements installed in this window, followed to their removal or to its end (still in service: censored at the end)',
+              what:
+                'element lives overlapping this window: begun before it, entered at their age at its start; followed to their removal or to its end (still in service: censored at the end)',
             },
           ]
         : [],
@@ -282,6 +341,8 @@ export async function getElementLife(db: Db, query: ElementLifeQuery): Promise<B
     confidence: query.confidence,
     groupBy: query.groupBy,
     groups,
+    windowTreatment,
+    notes,
     provenance,
   };
 }

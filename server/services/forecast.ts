@@ -23,6 +23,7 @@ import {
   observeLives,
   serialProvenance,
   weibullOut,
+  windowTreatmentOf,
   type ElementLifeObservation,
 } from './element-life.ts';
 
@@ -70,22 +71,37 @@ export function forecastMonths(asOf: Date, months: number, timeZone: string): Ar
   return periods;
 }
 
-/** Elements in service at `asOf`: installed before it and not removed by then. */
+/**
+ * Elements in service at `asOf`: installed before it and not removed before it — however long before
+ * the window they were installed. A removal at `asOf` itself is in service still, as `observeLives`
+ * censors a removal at or after the window's end.
+ */
 function inServiceAt(installs: readonly ElementInstall[], asOf: Date): ElementInstall[] {
-  return installs.filter((e) => e.installedAt < asOf && (e.removedAt === null || e.removedAt > asOf));
+  return installs.filter((e) => e.installedAt < asOf && (e.removedAt === null || e.removedAt >= asOf));
 }
 
-function fitOf(lives: readonly ElementLifeObservation[], confidence: number): { result: WeibullFitResult; times: number[]; events: boolean[] } {
+interface FitData {
+  result: WeibullFitResult;
+  times: number[];
+  events: boolean[];
+  /** Entry ages (delayed entry); undefined when every life is seen from installation. */
+  entries: number[] | undefined;
+}
+
+function fitOf(lives: readonly ElementLifeObservation[], confidence: number): FitData {
   const times = lives.map((l) => l.days);
   const events = lives.map((l) => l.event);
-  return { result: fitWeibull(times, events, { confidence }), times, events };
+  const entries = lives.some((l) => l.entryDays > 0) ? lives.map((l) => l.entryDays) : undefined;
+  return { result: fitWeibull(times, events, { confidence, ...(entries ? { entries } : {}) }), times, events, entries };
 }
 
 /**
  * Replacement forecast (DESIGN §6). asOf = the window end `to` (default: the end of the data; now
- * when the site has no data). For each element in service at asOf with age a days and the Weibull
- * (β, η) of its group (fitted by maximum likelihood to the lives `element-life` reports for the
- * window [from, asOf), same group-by), the probability of a life-ending event in a month [s, e)
+ * when the site has no data); the horizon starts there. For each element in service at asOf
+ * (installed before it and not removed before it, whenever it was installed) with age a days at
+ * asOf and the Weibull (β, η) of its group (fitted by maximum likelihood to the lives `element-life`
+ * reports for the window [from, asOf), same group-by: every life overlapping it, those begun before
+ * `from` entering at their age then), the probability of a life-ending event in a month [s, e)
  * after asOf is exp(H(a) − H(a+s))·(1 − exp(H(a+s) − H(a+e))) with H(x) = (x/η)^β; expected count =
  * Σ of those probabilities, expected cost = count × settings.elementUnitCost. Conditional on survival
  * to asOf, the probability within h is 1 − exp((a/η)^β − ((a+h)/η)^β). Band: the range over the
@@ -104,7 +120,7 @@ export async function getForecast(db: Db, query: ForecastQuery): Promise<Forecas
   const lives = observeLives(installs, places, query.groupBy, scope.from, asOf);
   const livesByGroup = groupLives(lives, query.groupBy);
   // The fit of every life in scope: the 'all' group's own, and what a group without a fit of its own borrows.
-  let pooledFit: ReturnType<typeof fitOf> | undefined;
+  let pooledFit: FitData | undefined;
   const pooled = () => (pooledFit ??= fitOf(lives, query.confidence));
 
   const periods = forecastMonths(asOf, query.months, scope.site.timeZone);
@@ -115,6 +131,13 @@ export async function getForecast(db: Db, query: ForecastQuery): Promise<Forecas
     (serviceByGroup.get(key) ?? serviceByGroup.set(key, []).get(key)!).push(e);
   }
 
+  const lifeTreatment = windowTreatmentOf(lives);
+  const windowTreatment = {
+    ...lifeTreatment,
+    text:
+      `The forecast covers the ${inService.length} element(s) in service at the window's end, whenever installed, each at its age then; ` +
+      `its months start at the window's end. The Weibull fits: ${lifeTreatment.text}`,
+  };
   const notes: string[] = [];
   const groups: ForecastGroupOut[] = [];
   const keys = [...new Set([...livesByGroup.keys(), ...serviceByGroup.keys()])].sort(compareGroupKeys);
@@ -136,7 +159,11 @@ export async function getForecast(db: Db, query: ForecastQuery): Promise<Forecas
       notes.push(`${key}: its own lives give no Weibull fit (${own.result.reason}); the pooled fit of every life in scope is used.`);
     }
     const fit = chosen.result.fit;
-    const region = weibullConfidenceRegion(chosen.times, chosen.events, { confidence: query.confidence, dof: 1 });
+    const region = weibullConfidenceRegion(chosen.times, chosen.events, {
+      confidence: query.confidence,
+      dof: 1,
+      ...(chosen.entries ? { entries: chosen.entries } : {}),
+    });
     if (region.some((p) => !p.closed)) {
       notes.push(`${key}: the confidence region of the fit does not close (too few events): the band understates the uncertainty.`);
     }
@@ -181,6 +208,7 @@ export async function getForecast(db: Db, query: ForecastQuery): Promise<Forecas
     });
   }
   if (inService.length === 0) notes.push('No element is in service at the forecast start in this scope.');
+  notes.push(windowTreatment.text);
 
   const totals = periods.map((p, k) => ({
     label: p.label,
@@ -210,6 +238,7 @@ export async function getForecast(db: Db, query: ForecastQuery): Promise<Forecas
     groups,
     totals,
     inService: inService.length,
+    windowTreatment,
     cautions: [...vesselWorkCautions],
     notes,
     provenance,

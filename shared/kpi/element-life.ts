@@ -2,6 +2,12 @@
 // by maximum likelihood with right censoring (with likelihood-ratio or Wald confidence intervals),
 // median-rank regression as a cross-check, and the life figures derived from a fit.
 // Time is in whatever unit the caller passes (Osmia passes days); every function is unit-agnostic.
+//
+// Delayed entry (left truncation): a life first seen at age e > 0 (an element already in service
+// when the observation window opened) is given as `entries[i] = e`. It is at risk only at ages
+// e < t ≤ its time, and the Weibull likelihood conditions on survival to e. Klein & Moeschberger,
+// Survival Analysis, 2nd ed., ch. 4 (truncation). Without `entries` every life enters at age 0 and
+// the answers are the plain right-censored ones.
 import {
   assertFinite,
   assertProbability,
@@ -12,9 +18,12 @@ import {
   type NullReason,
 } from './stats.ts';
 
-function checkLives(times: readonly number[], events: readonly boolean[]): void {
+function checkLives(times: readonly number[], events: readonly boolean[], entries?: readonly number[]): void {
   if (times.length !== events.length) {
     throw new RangeError(`times and events differ in length (${times.length} vs ${events.length}).`);
+  }
+  if (entries !== undefined && entries.length !== times.length) {
+    throw new RangeError(`times and entries differ in length (${times.length} vs ${entries.length}).`);
   }
   times.forEach((t, i) => {
     assertFinite(t, `times[${i}]`);
@@ -24,6 +33,13 @@ function checkLives(times: readonly number[], events: readonly boolean[]): void 
     if (typeof e !== 'boolean')
       throw new RangeError(`events[${i}] must be true (life-ending event) or false (censored).`);
   });
+  entries?.forEach((e, i) => {
+    assertFinite(e, `entries[${i}]`);
+    // A life that enters at age e > 0 must be seen for some time after it: e < t.
+    if (e < 0 || (e > 0 && !(e < times[i]!))) {
+      throw new RangeError(`entries[${i}] must be 0, or > 0 and below times[${i}] (${times[i]}), got ${e}.`);
+    }
+  });
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -32,7 +48,10 @@ function checkLives(times: readonly number[], events: readonly boolean[]): void 
 export interface KaplanMeierRow {
   /** A distinct observed time (event or censoring). */
   t: number;
-  /** Units with time ≥ t: a unit censored at t is still at risk at t. */
+  /**
+   * Units with time ≥ t (a unit censored at t is still at risk at t) that have entered by then:
+   * entry age 0, or entry age < t.
+   */
   nRisk: number;
   nEvents: number;
   nCensored: number;
@@ -67,19 +86,33 @@ export interface KaplanMeierResult {
  * One row per distinct time (events and censorings, as survfit lists them). The median is the first
  * time S ≤ 0.5; where S equals 0.5 exactly over a stretch, the midpoint of that stretch (to the next
  * drop, or to the last observed time), as survfit prints it. The median's limits are the same rule
- * applied to the lower and upper curves. Degenerate input: no units → no rows, median null
- * ('no-data'); all censored → S = 1 throughout, median null ('not-reached'). Throws on negative or
- * non-finite times, length mismatch, or confidence outside (0, 1).
+ * applied to the lower and upper curves.
+ *
+ * With `entries` (delayed entry, left truncation): n_j counts only the units with entry age
+ * e_i < t_j ≤ t_i, so a unit first seen at age e adds to the risk sets after e and not before; a
+ * unit with entry 0 is at risk from age 0 itself, as without entries. The product-limit and
+ * Greenwood forms are unchanged with these risk sets (Klein & Moeschberger, Survival Analysis, 2nd
+ * ed., ch. 4, estimation for left-truncated and right-censored data). S(t) is then conditional on
+ * survival to the smallest entry age; when early risk sets are small the curve can fall to 0 and
+ * stay there although later units entered — a property of the estimator, not an error.
+ *
+ * Degenerate input: no units → no rows, median null ('no-data'); all censored → S = 1 throughout,
+ * median null ('not-reached'). Throws on negative or non-finite times, length mismatch, an entry age
+ * that is not 0 or below its time, or confidence outside (0, 1).
  */
 export function kaplanMeier(
   times: readonly number[],
   events: readonly boolean[],
   confidence: number,
+  entries?: readonly number[],
 ): KaplanMeierResult {
-  checkLives(times, events);
+  checkLives(times, events, entries);
   assertProbability(confidence, 'confidence', { open: true });
   const z = normalQuantile((1 + confidence) / 2);
   const order = times.map((t, i) => ({ t, e: events[i]! })).sort((a, b) => a.t - b.t);
+  // Positive entry ages in order: those ≥ t have not entered yet at t.
+  const lateEntries = (entries ?? []).filter((e) => e > 0).sort((a, b) => a - b);
+  let entered = 0;
   const rows: KaplanMeierRow[] = [];
   let atRisk = order.length;
   let survival = 1;
@@ -94,15 +127,19 @@ export function kaplanMeier(
       else c += 1;
       i += 1;
     }
+    while (entered < lateEntries.length && lateEntries[entered]! < t) entered += 1;
+    // Every unit with time ≥ t, less those entering at or after t (their time is above t, so they
+    // are among the former). At least the units ending at t are left: entry < time.
+    const nRisk = atRisk - (lateEntries.length - entered);
     if (d > 0) {
-      survival *= 1 - d / atRisk;
-      if (d < atRisk) greenwood += d / (atRisk * (atRisk - d));
+      survival *= 1 - d / nRisk;
+      if (d < nRisk) greenwood += d / (nRisk * (nRisk - d));
       else zeroReached = true;
     }
     const root = Math.sqrt(greenwood);
     rows.push({
       t,
-      nRisk: atRisk,
+      nRisk,
       nEvents: d,
       nCensored: c,
       survival,
@@ -205,14 +242,20 @@ export interface WeibullFitOptions {
   confidence?: number;
   /** Default 'likelihood-ratio'. */
   interval?: WeibullInterval;
+  /** Entry age of each unit (delayed entry), 0 for a unit seen from age 0; default all 0. */
+  entries?: readonly number[];
 }
 
 /**
- * The censored Weibull log-likelihood of one data set, over logarithms taken once:
- * with l = ln t − ln η and z = e^{βl},
- *   ℓ(β, η) = r ln β − rβ ln η + (β − 1) Σ_events ln t − Σ_all z,
- *   ∂ℓ/∂β = r/β + Σ_events l − Σ z·l,   ∂²ℓ/∂β² = −r/β² − Σ z·l²,   ∂ℓ/∂ln η = β(Σ z − r).
- * Each evaluation is one pass over the units with one exponential each.
+ * The censored, left-truncated Weibull log-likelihood of one data set, over logarithms taken once:
+ * with l = ln t − ln η, z = e^{βl}, and for a unit entering at age e > 0 also m = ln e − ln η,
+ * w = e^{βm} = (e/η)^β (the −ln S(e) that conditioning on survival to e adds back),
+ *   ℓ(β, η) = r ln β − rβ ln η + (β − 1) Σ_events ln t − Σ_all z + Σ_entered w,
+ *   ∂ℓ/∂β = r/β + Σ_events l − (Σ z·l − Σ w·m),   ∂²ℓ/∂β² = −r/β² − (Σ z·l² − Σ w·m²),
+ *   ∂ℓ/∂ln η = β((Σ z − Σ w) − r).
+ * The w terms have the form of the z terms with the opposite sign, so every sum below is the net
+ * one (units' z minus entries' w). Each evaluation is one pass over the units and one over the late
+ * entries (none without delayed entry) with one exponential each.
  */
 interface Likelihood {
   n: number;
@@ -222,36 +265,44 @@ interface Likelihood {
   withGradient(shape: number, scale: number): { value: number; dLogShape: number; dLogScale: number };
   /** ∂ℓ/∂β and ∂²ℓ/∂β² at fixed η (ℓ is strictly concave in β). */
   shapeScore(shape: number, scale: number): readonly [number, number];
-  /** Σ z, Σ z·l, Σ z·l² at (β, η). */
+  /** Net Σ z − Σ w, Σ z·l − Σ w·m, Σ z·l² − Σ w·m² at (β, η). */
   sums(shape: number, scale: number): readonly [number, number, number];
-  /** The MLE of η for a given β: (Σ t^β / r)^{1/β}, on t / max t so t^β cannot overflow. */
+  /** The MLE of η for a given β: ((Σ t^β − Σ e^β) / r)^{1/β}, on t / max t so t^β cannot overflow. */
   profileScale(shape: number): number;
 }
 
 interface LifeData {
   times: number[];
   events: boolean[];
+  /** Positive entry ages (delayed entry), in no particular order; empty without delayed entry. */
+  lateEntries: number[];
   excludedZeroTimes: number;
 }
 
-function positiveLives(times: readonly number[], events: readonly boolean[]): LifeData {
-  checkLives(times, events);
-  const kept: LifeData = { times: [], events: [], excludedZeroTimes: 0 };
+function positiveLives(times: readonly number[], events: readonly boolean[], entries?: readonly number[]): LifeData {
+  checkLives(times, events, entries);
+  const kept: LifeData = { times: [], events: [], lateEntries: [], excludedZeroTimes: 0 };
   times.forEach((t, i) => {
+    // A zero time has entry 0 (checkLives): nothing to condition on.
     if (t === 0) kept.excludedZeroTimes += 1;
     else {
       kept.times.push(t);
       kept.events.push(events[i]!);
+      const e = entries?.[i] ?? 0;
+      if (e > 0) kept.lateEntries.push(e);
     }
   });
   return kept;
 }
 
-function makeLikelihood({ times, events }: LifeData): Likelihood {
+function makeLikelihood({ times, events, lateEntries }: LifeData): Likelihood {
   const n = times.length;
   const lnTMax = Math.log(maxOf(times));
   /** ln(t / max t) ≤ 0 */
   const u = Float64Array.from(times, (t) => Math.log(t) - lnTMax);
+  /** ln(e / max t) < 0 for each late entry (e < its t ≤ max t). */
+  const v = Float64Array.from(lateEntries, (e) => Math.log(e) - lnTMax);
+  const k = v.length;
   let r = 0;
   let sumLnEvents = 0;
   for (let i = 0; i < n; i++) {
@@ -276,6 +327,16 @@ function makeLikelihood({ times, events }: LifeData): Likelihood {
       }
       s0 += z;
     }
+    for (let j = 0; j < k; j++) {
+      const m = v[j]! + a;
+      const w = Math.exp(shape * m);
+      if (m !== 0) {
+        const wm = w * m;
+        s1 -= wm;
+        s2 -= wm * m;
+      }
+      s0 -= w;
+    }
     return [s0, s1, s2];
   };
   const value = (shape: number, scale: number, sumZ: number): number => {
@@ -290,6 +351,7 @@ function makeLikelihood({ times, events }: LifeData): Likelihood {
       const a = lnTMax - Math.log(scale);
       let s0 = 0;
       for (let i = 0; i < n; i++) s0 += Math.exp(shape * (u[i]! + a));
+      for (let j = 0; j < k; j++) s0 -= Math.exp(shape * (v[j]! + a));
       return value(shape, scale, s0);
     },
     withGradient(shape, scale) {
@@ -304,6 +366,7 @@ function makeLikelihood({ times, events }: LifeData): Likelihood {
     profileScale(shape) {
       let s = 0;
       for (let i = 0; i < n; i++) s += Math.exp(shape * u[i]!);
+      for (let j = 0; j < k; j++) s -= Math.exp(shape * v[j]!);
       return Math.exp(lnTMax + Math.log(s / r) / shape);
     },
   };
@@ -320,6 +383,15 @@ const LIMIT_RANGE = Math.log(1e6);
  * (increasing in β, so its root is unique), and the scale is then closed-form,
  * η = (Σ_all t^β / r)^{1/β}. Lawless, Statistical Models and Methods for Lifetime Data, ch. 5;
  * NIST/SEMATECH e-Handbook §8.4.1.2. Roots are found by safeguarded Newton steps (`monotoneRoot`).
+ *
+ * With `options.entries` (delayed entry): the likelihood conditions each unit on survival to its
+ * entry age e, log L = Σ_events ln f(t) + Σ_censored ln S(t) − Σ_all ln S(e), S(x) = exp(−(x/η)^β)
+ * (Klein & Moeschberger, Survival Analysis, 2nd ed., ch. 4 on truncation); each late entry adds
+ * +(e/η)^β. Every Σ_all t^β above becomes Σ_all t^β − Σ_entered e^β (and likewise with ln t), so
+ * η = ((Σ t^β − Σ e^β)/r)^{1/β}. The profile score stays increasing in β: Σ(t^β − e^β) = β∫e^{βy}dμ
+ * over the union of the intervals [ln e, ln t], so it is the derivative of a log moment-generating
+ * function, whose root is unique. Every unit entered late (none seen from age 0) can leave the
+ * likelihood rising as β → 0; that, like the case below, is 'shape-diverges'.
  *
  * Intervals at the given confidence C (default 0.9):
  * - 'likelihood-ratio' (default): {θ : 2(ℓ̂ − ℓ_profile(θ)) ≤ χ²_C(1)} for β and for η separately;
@@ -341,7 +413,7 @@ export function fitWeibull(
   const confidence = options.confidence ?? 0.9;
   const intervalMethod = options.interval ?? 'likelihood-ratio';
   assertProbability(confidence, 'confidence', { open: true });
-  const data = positiveLives(times, events);
+  const data = positiveLives(times, events, options.entries);
   if (data.times.length === 0) return { fit: null, reason: 'no-data', n: 0, events: 0 };
   const likelihood = makeLikelihood(data);
   const { n, r } = likelihood;
@@ -412,7 +484,7 @@ export function fitWeibull(
   };
 }
 
-/** MLE (β̂, η̂) or null when every event sits at the longest time (no finite root). */
+/** MLE (β̂, η̂) or null when every event sits at the longest time, or the root lies below β = 10⁻⁶. */
 function weibullMle({ times, events }: LifeData, likelihood: Likelihood): WeibullParams | null {
   const tMax = maxOf(times);
   if (times.every((t, i) => !events[i] || t === tMax)) return null;
@@ -421,8 +493,9 @@ function weibullMle({ times, events }: LifeData, likelihood: Likelihood): Weibul
     if (events[i]) meanLnEvents += Math.log(t / tMax) / likelihood.r;
   });
   // Profile score in x = ln β, on u = t / max t (so u^β never overflows): with Σ u^β ln u etc. from
-  // the likelihood's sums at η = max t, s1/s0 − 1/β − mean ln u over events. Its β-derivative is the
-  // weighted variance of ln u plus 1/β², so it increases.
+  // the likelihood's (net) sums at η = max t, s1/s0 − 1/β − mean ln u over events. Its β-derivative
+  // is the weighted variance of ln u plus 1/β² (with late entries: the variance under the tilted
+  // interval measure of fitWeibull's comment), so it increases.
   const score = (x: number): readonly [number, number] => {
     const b = Math.exp(x);
     const [s0, s1, s2] = likelihood.sums(b, tMax);
@@ -441,7 +514,12 @@ function weibullMle({ times, events }: LifeData, likelihood: Likelihood): Weibul
   return { shape, scale: likelihood.profileScale(shape) };
 }
 
-/** The β maximizing ℓ(β, η) at fixed η (ℓ is concave in β, so the root of ∂ℓ/∂β), from a warm start. */
+/**
+ * The β maximizing ℓ(β, η) at fixed η (the root of ∂ℓ/∂β), from a warm start. Without late entries ℓ
+ * is concave in β. A late entry's +(e/η)^β term can bend it the other way where e ≪ η, so the root
+ * is then the one reached from the warm start (the previous point on the profile, starting at β̂);
+ * the tests check the resulting limits against a plain numerical profile of the formula.
+ */
 function profileShape(likelihood: Likelihood, scale: number, start: number): number {
   // In x = ln β: d/dx ∂ℓ/∂β = β ∂²ℓ/∂β² < 0, so the score decreases.
   const score = (x: number): readonly [number, number] => {
@@ -512,21 +590,23 @@ function observedCovarianceLog(likelihood: Likelihood, shape: number, scale: num
  * dof = 1 gives the region whose extremes are the profile-likelihood interval of any single
  * quantity computed from (β, η) (used for the forecast band); dof = 2 the joint region.
  * A ray that has not closed at 10³ standard deviations stops there (`closed: false`).
+ * `entries` (delayed entry) as for fitWeibull.
  * Returns [] when no fit is possible (same degenerate cases as fitWeibull).
  */
 export function weibullConfidenceRegion(
   times: readonly number[],
   events: readonly boolean[],
-  options: { confidence?: number; dof?: 1 | 2; points?: number } = {},
+  options: { confidence?: number; dof?: 1 | 2; points?: number; entries?: readonly number[] } = {},
 ): Array<WeibullParams & { closed: boolean }> {
   const confidence = options.confidence ?? 0.9;
   const dof = options.dof ?? 1;
   const points = options.points ?? 72;
   if (!Number.isInteger(points) || points < 4) throw new RangeError('points must be a whole number ≥ 4.');
-  const result = fitWeibull(times, events, { confidence, interval: 'wald-log' });
+  const entries = options.entries;
+  const result = fitWeibull(times, events, { confidence, interval: 'wald-log', ...(entries ? { entries } : {}) });
   if (result.fit === null) return [];
   const { shape, scale, logLik, covarianceLog } = result.fit;
-  const likelihood = makeLikelihood(positiveLives(times, events));
+  const likelihood = makeLikelihood(positiveLives(times, events, entries));
   const q = chiSquareQuantile(confidence, dof);
   const l11 = Math.sqrt(covarianceLog[0][0]);
   const l21 = covarianceLog[1][0] / l11;

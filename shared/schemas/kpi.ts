@@ -176,9 +176,11 @@ const elementGroupKeySchema = z.string().regex(/^(all|(train|stage|position|mode
 
 export const elementLifeGroupSchema = z.object({
   key: elementGroupKeySchema,
-  /** Element lives in the group (installs), and life-ending events among them. */
+  /** Element lives in the group that overlap the window, and life-ending events among them in it. */
   n: count,
   events: count,
+  /** Of the n lives, those begun before the window's start (entering at their age then). */
+  enteredLate: count.optional(),
   weibull: weibullSchema.nullable(),
   b10Days: days.nullable(),
   medianDays: days.nullable(),
@@ -195,6 +197,20 @@ export const elementLifeGroupSchema = z.object({
   reasons: reasonsSchema.optional(),
 });
 
+/**
+ * How element lives crossing the window's edges were treated (element-life, forecast). Every life
+ * overlapping [from, to) is used. `enteredLate`: lives begun before `from` and still in service then;
+ * each enters at its age at `from` (delayed entry / left truncation: at risk only from that age, the
+ * Weibull likelihood conditioned on survival to it). `censoredAtEnd`: lives still in service at `to`,
+ * or removed at or after it, right-censored at their age at `to`. Lives removed before `from` are
+ * left out. `text`: the same as a sentence (also the first of `notes`).
+ */
+export const windowTreatmentSchema = z.object({
+  enteredLate: count,
+  censoredAtEnd: count,
+  text: z.string(),
+});
+
 export const elementLifeReportSchema = z.object({
   site: z.string().optional(),
   ...freshnessShape,
@@ -203,6 +219,8 @@ export const elementLifeReportSchema = z.object({
   confidence: confidence.optional(),
   groupBy: z.enum(elementGroupByValues).optional(),
   groups: z.array(elementLifeGroupSchema),
+  windowTreatment: windowTreatmentSchema.optional(),
+  notes: z.array(z.string()).optional(),
   provenance: provenanceSchema.optional(),
 });
 export type ElementLifeReport = z.infer<typeof elementLifeReportSchema>;
@@ -271,8 +289,13 @@ export const forecastReportSchema = z.object({
       expectedCost: z.number().nonnegative(),
     }),
   ),
-  /** Elements in service at the forecast start. */
+  /**
+   * Elements in service at the forecast start (the window's end `to`: installed before it, not
+   * removed before it, however long before the window they were installed), forecast or not.
+   */
   inService: count.optional(),
+  /** How the lives of the fits were taken from the window (see windowTreatmentSchema). */
+  windowTreatment: windowTreatmentSchema.optional(),
   notes: z.array(z.string()).optional(),
   /** Replacing elements means opening pressure vessels: the usual cautions (shared/cautions.ts). */
   cautions: z.array(z.string()).optional(),

@@ -43,6 +43,18 @@ describe('formatElementLife', () => {
   });
 
   it('states the window and the grouping', () => {
-    expect(rows[0]).toBe('Element life — site LZ, grouped by position, installed 2020-01-01T00:00:00.000Z to 2021-01-01T00:00:00.000Z');
+    expect(rows[0]).toBe('Element life — site LZ, grouped by position, lives in service from 2020-01-01T00:00:00.000Z to 2021-01-01T00:00:00.000Z');
+  });
+
+  it('prints how lives crossing the window were treated, and the other notes', () => {
+    const withWindow = formatElementLife({
+      ...report,
+      windowTreatment: { enteredLate: 3, censoredAtEnd: 2, text: 'Three lives began before the window.' },
+      notes: ['Three lives began before the window.', 'The regression uses the lives seen from installation.'],
+    });
+    const lines = withWindow.split('\n');
+    expect(lines.filter((l) => l.includes('Three lives began before the window.'))).toHaveLength(1);
+    expect(lines).toContain('Note: The regression uses the lives seen from installation.');
+    expect(text).toContain('Lives still in service at the window end are censored there.');
   });
 });

@@ -220,12 +220,47 @@ describe('element life: a register worked by hand', () => {
     expect(JSON.stringify(byPosition)).not.toMatch(/NaN|Infinity/);
   });
 
-  it('limits the lives to the asset scope and to installs inside the window', async () => {
+  it('limits the lives to the asset scope and to the lives overlapping the window', async () => {
     const t2 = await report({ site: 'KM', asset: 'T2', to: '2022-01-01' });
     expect([group(t2, 'all').n, group(t2, 'all').events]).toEqual([3, 1]);
-    // Window [2021-06-01, 2022-01-01): only C1 was installed in it (B3 on 2021-05-31 is outside).
+    // Window [2021-06-01, 2022-01-01) = days [151, 365): A1 (removed day 100) and B1 (day 150) ended
+    // before it and are left out; D1 was installed after it. C1 (installed day 181) is seen from
+    // installation; A2, A3, A4, B2 (installed day 0) enter at age 151, B3 (installed day 150) at age 1.
+    //   life | entry | exit | event       risk set at t: entry < t ≤ exit (hand-worked)
+    //   C1   |   0   | 184  | C (removed after the window)     t=184: 6 · 200: 5 · 215: 4 · 250: 3
+    //   A2   |  151  | 200  | C (planned)                      t=300: 2, one event → S = 1/2
+    //   B3   |   1   | 215  | C (in service at the end)        t=365: 1
+    //   B2   |  151  | 250  | C (relocated)
+    //   A3   |  151  | 300  | E (performance)
+    //   A4   |  151  | 365  | C (in service at the end)
     const late = await report({ site: 'KM', from: '2021-06-01', to: '2022-01-01' });
-    expect(group(late, 'all').km.map((p) => [p.tDays, p.nCensored])).toEqual([[184, 1]]);
+    const lateAll = group(late, 'all');
+    expect([lateAll.n, lateAll.events, lateAll.enteredLate]).toEqual([6, 1, 5]);
+    expect(lateAll.km.map((p) => [Math.round(p.tDays * 1e6) / 1e6, p.nRisk, p.nEvents, p.nCensored])).toEqual([
+      [184, 6, 0, 1],
+      [200, 5, 0, 1],
+      [215, 4, 0, 1],
+      [250, 3, 0, 1],
+      [300, 2, 1, 0],
+      [365, 1, 0, 1],
+    ]);
+    expect(lateAll.km[4]!.survival).toBeCloseTo(0.5, 12);
+    // S = 0.5 exactly from 300 to the last time 365: the survfit midpoint rule gives 332.5.
+    expect(lateAll.kmMedianDays).toBeCloseTo(332.5, 9);
+    expect(late.windowTreatment).toMatchObject({ enteredLate: 5, censoredAtEnd: 3 });
+    expect(late.notes![0]).toBe(late.windowTreatment!.text);
+    expect(late.windowTreatment!.text).toMatch(/5 lives began before the window's start and enter at their age then/);
+    // The Weibull fit is the left-truncated one of exactly these lives.
+    const direct = fitWeibull([184, 200, 215, 250, 300, 365], [false, false, false, false, true, false], {
+      entries: [0, 151, 1, 151, 151, 151],
+      confidence: 0.9,
+    });
+    expect(lateAll.weibull!.shape).toBeCloseTo(direct.fit!.shape, 9);
+    expect(lateAll.weibull!.scaleDays).toBeCloseTo(direct.fit!.scale, 6);
+    // Median ranks have no delayed-entry form: only C1 was seen from installation, too few events.
+    expect(lateAll.medianRankRegression).toBeNull();
+    expect(lateAll.reasons).toMatchObject({ medianRankRegression: 'too-few-events' });
+    expect(late.provenance!.elements).toEqual(['A2', 'A3', 'A4', 'B2', 'B3', 'C1']);
     // Window ending 2021-06-01 (day 151): A1 and B1 failed before it; A2–A4, B2 are censored at 151, B3 at 1.
     const early = await report({ site: 'KM', to: '2021-06-01T00:00:00Z' });
     const all = group(early, 'all');
@@ -265,9 +300,19 @@ describe('element life: edge cases', () => {
     expect((await report({ site: 'EMPTY', groupBy: 'position' })).groups).toEqual([]);
   });
 
-  it('a window with no installs gives n = 0; a window that ends before it starts is refused', async () => {
+  it('a window before any install gives n = 0; one with lives but no removals has no fit; an empty window is refused', async () => {
+    expect(group(await report({ site: 'KM', from: '2020-01-01', to: '2020-06-01' }), 'all')).toMatchObject({ n: 0, weibull: null });
+    // [2023-01-01, 2023-02-01): A4, B3 and D1 are in service through it, entering at ages 730, 580
+    // and 306 days and censored 31 days later (hand-worked); nothing ends in it.
     const r = await report({ site: 'KM', from: '2023-01-01', to: '2023-02-01' });
-    expect(group(r, 'all')).toMatchObject({ n: 0, weibull: null });
+    const all = group(r, 'all');
+    expect(all).toMatchObject({ n: 3, events: 0, enteredLate: 3, weibull: null, reasons: { weibull: 'no-events' } });
+    expect(all.km.map((p) => [Math.round(p.tDays * 1e6) / 1e6, p.nRisk])).toEqual([
+      [337, 1],
+      [611, 1],
+      [761, 1],
+    ]);
+    expect(r.windowTreatment).toMatchObject({ enteredLate: 3, censoredAtEnd: 3 });
     await expect(report({ site: 'KM', from: '2022-01-01', to: '2021-01-01' })).rejects.toMatchObject({ status: 400, code: 'invalid-window' });
     await expect(report({ site: 'KM', asset: 'NOPE' })).rejects.toBeInstanceOf(HttpError);
   });

@@ -2,6 +2,7 @@ import { lazy } from 'react';
 import { elementGroupByValues } from '#shared/schemas/kpi.ts';
 import { ChartFrame } from '../../../components/charts/chart-frame.tsx';
 import { Card } from '../../../components/ui/card.tsx';
+import { NotesDetails } from '../../../components/ui/notes-details.tsx';
 import { ProvenanceDetails } from '../../../components/ui/provenance-details.tsx';
 import { Select } from '../../../components/ui/select.tsx';
 import { formatDate, formatNumber, formatShare } from '../../../lib/format.ts';
@@ -22,6 +23,8 @@ export function ElementLifePanel({ params }: { params: ElementLifeParams }) {
   const series = report.groups.filter((g) => g.km.length > 0).map((g) => ({ id: groupKeyLabel(g.key), steps: survivalSteps(g.km) }));
   const lives = report.groups.reduce((n, g) => n + g.n, 0);
   const events = report.groups.reduce((n, g) => n + g.events, 0);
+  const enteredLate = report.groups.reduce((n, g) => n + (g.enteredLate ?? 0), 0);
+  const window = report.from ? `${formatDate(report.from)} – ${formatDate(report.to)}` : 'the window';
 
   return (
     <div className="space-y-6">
@@ -30,8 +33,9 @@ export function ElementLifePanel({ params }: { params: ElementLifeParams }) {
         title="Element survival (Kaplan–Meier)"
         description={
           <>
-            Share of elements still in service by age: {formatNumber(lives, 0)} element lives installed {report.from ? `${formatDate(report.from)} – ${formatDate(report.to)}` : 'in the window'},{' '}
-            {formatNumber(events, 0)} ended by failure, performance or damage; the others are censored (planned removal, or still in service at the window’s end).
+            Share of elements still in service by age: {formatNumber(lives, 0)} element lives in service during {window}
+            {enteredLate > 0 && ` (${formatNumber(enteredLate, 0)} of them installed before it, counted from their age at its start)`},{' '}
+            {formatNumber(events, 0)} ended in it by failure, performance or damage; the others are censored (planned removal, or still in service at the window’s end).
           </>
         }
         actions={
@@ -56,8 +60,10 @@ export function ElementLifePanel({ params }: { params: ElementLifeParams }) {
         ) : (
           <p className="text-sm text-basin-600">No element lives in this window.</p>
         )}
+        {report.windowTreatment && <p className="mt-3 text-sm text-basin-700">{report.windowTreatment.text}</p>}
       </Card>
       <WeibullTable groups={report.groups} confidenceLabel={confidenceLabel} />
+      <NotesDetails notes={report.notes?.filter((n) => n !== report.windowTreatment?.text)} />
       <ProvenanceDetails provenance={report.provenance} />
     </div>
   );

@@ -34,7 +34,7 @@ export function ForecastPanel({ params, currency }: { params: ElementLifeParams;
   const report = useForecast(params);
   const money = (v: number) => formatMoney(v, currency);
   const bandLabel = `${formatShare(report.confidence, 0)} band`;
-  const { count, cost, inService, single } = forecastTotals(report);
+  const { count, cost, inService, forecastInService, single } = forecastTotals(report);
   const byMonth = new Map(report.groups.length === 1 ? report.groups[0].months.map((m) => [m.label, m]) : []);
   const bars: ForecastBar[] = report.totals.map((m) => {
     const band = byMonth.get(m.label);
@@ -72,8 +72,10 @@ export function ForecastPanel({ params, currency }: { params: ElementLifeParams;
       title="Replacement forecast, next 12 months"
       description={
         <>
-          Expected life-ending element events from the Weibull fit, for the {formatNumber(inService, 0)} elements in service on {formatDate(report.asOf)},
-          priced at the element unit cost. {report.renewal ? 'Replacements that fail again are counted.' : 'First events only: a replacement that fails again is not counted.'}
+          Expected life-ending element events from the Weibull fit, for the {formatNumber(inService, 0)} elements in service at the window’s end ({formatDate(report.asOf)}),
+          each at its age then; priced at the element unit cost.{' '}
+          {forecastInService < inService && `${formatNumber(inService - forecastInService, 0)} of them have no Weibull fit and are not forecast (see the notes). `}
+          {report.renewal ? 'Replacements that fail again are counted.' : 'First events only: a replacement that fails again is not counted.'}
         </>
       }
     >
@@ -100,10 +102,11 @@ export function ForecastPanel({ params, currency }: { params: ElementLifeParams;
               )}
             </div>
             <div>
-              <dt className="text-sm text-basin-600">Elements in service</dt>
+              <dt className="text-sm text-basin-600">Elements in service at the window’s end</dt>
               <dd className="text-2xl font-bold text-basin-950 tabular-nums">{formatNumber(inService, 0)}</dd>
             </div>
           </dl>
+          {report.windowTreatment && <p className="text-sm text-basin-700">{report.windowTreatment.text}</p>}
           <ChartFrame
             label={`Expected element replacements per month, ${formatNumber(count, 1)} in total`}
             height={300}
@@ -123,7 +126,7 @@ export function ForecastPanel({ params, currency }: { params: ElementLifeParams;
           <Table caption="Forecast by group" columns={columns} rows={report.groups} rowKey={(g) => g.key} />
         </div>
       )}
-      <NotesDetails notes={report.notes} className="mt-4" />
+      <NotesDetails notes={report.notes?.filter((n) => n !== report.windowTreatment?.text)} className="mt-4" />
       <ProvenanceDetails provenance={report.provenance} className="mt-4" />
     </Card>
   );

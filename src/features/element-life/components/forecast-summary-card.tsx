@@ -14,7 +14,7 @@ export function ForecastSummaryCard({ params, currency, footer }: { params: Elem
   const band = `${formatShare(report.confidence, 0)} band`;
   const top = Math.max(...report.totals.map((m) => m.expectedCount), 1e-9);
   return (
-    <Card title="Element replacements, next 12 months" description={`Forecast from the Weibull fit for the ${formatNumber(inService, 0)} elements in service on ${formatDate(report.asOf)}.`}>
+    <Card title="Element replacements, next 12 months" description={`Forecast from the Weibull fit for the ${formatNumber(inService, 0)} elements in service on ${formatDate(report.asOf)}, each at its age then.`}>
       <FreshnessBanner answer={report} compact />
       <dl className="grid grid-cols-2 gap-x-6 gap-y-3">
         <div>

@@ -86,7 +86,7 @@ export function WeibullTable({ groups, confidenceLabel }: { groups: readonly Gro
   ];
   return (
     <Table
-      caption={`Weibull fit (maximum likelihood, right-censored) with ${confidenceLabel} likelihood-ratio intervals under the estimates; KM median read from the Kaplan–Meier curve`}
+      caption={`Weibull fit (maximum likelihood, right-censored; lives begun before the window enter at their age then) with ${confidenceLabel} likelihood-ratio intervals under the estimates; KM median read from the Kaplan–Meier curve`}
       columns={columns}
       dense
       rows={groups}

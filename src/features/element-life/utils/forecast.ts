@@ -21,12 +21,17 @@ export function monthShortLabel(label: string): string {
   return Number.isFinite(year) && Number.isFinite(month) ? monthShort.format(Date.UTC(year, month - 1, 15)) : label;
 }
 
-/** Sums of the forecast over its groups (each group's own total is exact; a band exists only per group). */
+/**
+ * Sums of the forecast over its groups (each group's own total is exact; a band exists only per group).
+ * `inService` is every element in service at the window's end, as the answer counts it, including
+ * those of a group that could not be forecast; `forecastInService` only those of the forecast groups.
+ */
 export function forecastTotals(report: ForecastReport) {
   const count = report.groups.reduce((n, g) => n + g.total.expectedCount, 0);
   const cost = report.groups.reduce((n, g) => n + g.total.expectedCost, 0);
-  const inService = report.groups.reduce((n, g) => n + g.inService, 0);
+  const forecastInService = report.groups.reduce((n, g) => n + g.inService, 0);
+  const inService = report.inService ?? forecastInService;
   const single = report.groups.length === 1 ? report.groups[0].total : null;
-  return { count, cost, inService, single };
+  return { count, cost, inService, forecastInService, single };
 }
 
