@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { downtimeReport } from '#shared/kpi/downtime.ts';
 import { downtimeReportSchema } from '#shared/schemas/kpi-ops.ts';
 import { formatDowntime, MAX_EVENT_ROWS } from '#bin/formatters/downtime.ts';
+import { freshAnswer } from '../../fixtures/freshness.ts';
 
 const cells = (line: string) => line.split('│').map((c) => c.trim()).filter(Boolean);
 const t = (iso: string) => new Date(iso);
@@ -34,7 +35,8 @@ const result = downtimeReport({
   ],
   settings: { waterValuePerM3: 0.85 },
 });
-const report = { ...downtimeReportSchema.parse({ ...result, site: 'OPS', currency: 'EUR' }), totals: result.totals.map((r) => ({ ...r, ratedPermeateFrom: 'TR1' })) };
+const report = { ...downtimeReportSchema.parse({
+  ...freshAnswer, ...result, site: 'OPS', currency: 'EUR' }), totals: result.totals.map((r) => ({ ...r, ratedPermeateFrom: 'TR1' })) };
 
 describe('formatDowntime', () => {
   const text = formatDowntime(report);

@@ -1,9 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { elementLifeReportSchema } from '#shared/schemas/kpi.ts';
 import { formatElementLife } from '#bin/formatters/element-life.ts';
+import { freshAnswer } from '../../fixtures/freshness.ts';
 
 // Figures of the Lieblein & Zelen (1956) ball-bearing fit (reference/checks.json), as days.
 const report = elementLifeReportSchema.parse({
+  ...freshAnswer,
   site: 'LZ',
   from: '2020-01-01T00:00:00.000Z',
   to: '2021-01-01T00:00:00.000Z',

@@ -2,9 +2,11 @@ import { describe, expect, it } from 'vitest';
 import { vesselWorkCautions } from '#shared/cautions.ts';
 import { forecastReportSchema } from '#shared/schemas/kpi.ts';
 import { formatForecast } from '#bin/formatters/forecast.ts';
+import { freshAnswer } from '../../fixtures/freshness.ts';
 
 const figures = { expectedCount: 0.75, expectedCost: 465, countLower: 0.5, countUpper: 1.25, costLower: 310, costUpper: 775 };
 const report = forecastReportSchema.parse({
+  ...freshAnswer,
   site: 'FC',
   asOf: '2020-12-31T23:00:00.000Z',
   confidence: 0.9,

@@ -1,9 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { maintenanceMixReportSchema } from '#shared/schemas/kpi-ops.ts';
 import { formatMaintenanceMix } from '#bin/formatters/maintenance-mix.ts';
+import { freshAnswer } from '../../fixtures/freshness.ts';
 
 // The hand-worked day of tests/server/services/maintenance-mix.test.ts (invented plant).
 const report = maintenanceMixReportSchema.parse({
+  ...freshAnswer,
   site: 'MIX',
   asset: 'T1',
   from: '2021-01-01T00:00:00.000Z',

@@ -3,6 +3,7 @@ import { maintenanceCautions } from '#shared/cautions.ts';
 import { normalizePerformance, type PerformancePoint } from '#shared/kpi/performance.ts';
 import { performanceReportSchema } from '#shared/schemas/kpi-ops.ts';
 import { formatPerformance, TREND_DAYS } from '#bin/formatters/performance.ts';
+import { freshAnswer } from '../../fixtures/freshness.ts';
 
 // Ten days of a stage whose permeate flow drops 12 % at equal recovery, pressures and temperature from day 6:
 // with recovery, NDP and TCF unchanged, the normalized change is the raw change, −12 % (hand-worked).
@@ -14,6 +15,7 @@ const points: PerformancePoint[] = Array.from({ length: 10 }, (_, i) => ({
 }));
 const result = normalizePerformance(points);
 const report = performanceReportSchema.parse({
+  ...freshAnswer,
   site: 'OPS',
   from: '2025-01-01T00:00:00.000Z',
   to: '2025-01-11T00:00:00.000Z',

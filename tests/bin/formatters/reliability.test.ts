@@ -2,12 +2,14 @@ import { describe, expect, it } from 'vitest';
 import { nullReasonMessages } from '#shared/kpi/stats.ts';
 import { reliabilityReportSchema } from '#shared/schemas/kpi.ts';
 import { formatReliability } from '#bin/formatters/reliability.ts';
+import { freshAnswer } from '../../fixtures/freshness.ts';
 
 const cells = (line: string) => line.split('│').map((c) => c.trim()).filter(Boolean);
 
 // Figures of the pump of tests/server/services/reliability.test.ts: T = 220 h, r = 2 (hand-worked there).
 const report = {
   ...reliabilityReportSchema.parse({
+  ...freshAnswer,
     site: 'OPS',
     asset: 'TR1',
     from: '2025-01-01T00:00:00.000Z',

@@ -2,9 +2,11 @@ import { describe, expect, it } from 'vitest';
 import { vesselWorkCautions } from '#shared/cautions.ts';
 import { quantileMethodType7, timeToCompleteReportSchema } from '#shared/schemas/kpi.ts';
 import { formatTimeToComplete } from '#bin/formatters/time-to-complete.ts';
+import { freshAnswer } from '../../fixtures/freshness.ts';
 
 // Figures of the ten invented jobs of reference/checks.json: type 7 median 6.75, p90 17.4, mean 9.35.
 const report = timeToCompleteReportSchema.parse({
+  ...freshAnswer,
   site: 'TTC',
   from: '2021-01-01T00:00:00.000Z',
   to: '2022-01-01T00:00:00.000Z',

@@ -15,9 +15,9 @@ import {
   timeToCompleteQuerySchema,
   timeToCompleteReportSchema,
 } from '#shared/schemas/kpi.ts';
+import { freshAnswer } from '../../fixtures/freshness.ts';
 
-/** The freshness fields every KPI answer carries (shared/schemas/common.ts). */
-const fresh = { dataAsOf: { newestSampleAt: '2025-12-31T23:55:00.000Z', newestWorkOrderAt: null }, derivedUpToDate: true, warnings: [] };
+
 
 describe('window query', () => {
   it('defaults confidence to 0.9 and keeps dates as the raw strings', () => {
@@ -81,7 +81,7 @@ describe('answers follow DESIGN §7', () => {
     const mtbf = mtbfWithBounds({ operatingHours: 8696, failures: 4, confidence: 0.9, terminated: 'time' });
     const mttr = mttrHours([10, 14, 6, 18]);
     const answer = {
-      ...fresh,
+      ...freshAnswer,
       asset: 'P-101',
       from: '2025-01-01T00:00:00.000Z',
       to: '2026-01-01T00:00:00.000Z',
@@ -103,7 +103,7 @@ describe('answers follow DESIGN §7', () => {
   it('reliability with no failures: nulls with reasons, never NaN', () => {
     const mtbf = mtbfWithBounds({ operatingHours: 800, failures: 0, confidence: 0.9, terminated: 'time' });
     const answer = {
-      ...fresh,
+      ...freshAnswer,
       asset: 'P-101',
       from: null,
       to: null,
@@ -129,7 +129,7 @@ describe('answers follow DESIGN §7', () => {
     const life = weibullLifeStats(fit);
     const km = kaplanMeier(times, events, 0.9);
     const answer = {
-      ...fresh,
+      ...freshAnswer,
       groups: [
         {
           key: 'position=1',
@@ -181,7 +181,7 @@ describe('answers follow DESIGN §7', () => {
       ],
     });
     const answer = {
-      ...fresh,
+      ...freshAnswer,
       quantileMethod: result.quantileMethod,
       groups: result.groups,
       jobs: result.jobs.map((j) => ({
@@ -208,7 +208,7 @@ describe('answers follow DESIGN §7', () => {
       costUpper: 434,
     };
     const answer = {
-      ...fresh,
+      ...freshAnswer,
       asOf: '2026-01-01T00:00:00.000Z',
       confidence: 0.9,
       groupBy: 'all',
