@@ -47,6 +47,9 @@ export function ImportRecordView({ record }: { record: ImportRecord }) {
       <div className="flex flex-wrap items-center gap-2 text-sm">
         <Badge tone={statusTones[record.status]}>{statusLabels[record.status]}</Badge>
         {record.dryRun && <Badge tone="brand">dry run: nothing kept</Badge>}
+        {(record.status === 'completed' || record.status === 'partial') && (
+          <Badge tone={record.derivedRefreshed ? 'ok' : 'warning'}>{record.derivedRefreshed ? 'derived data up to date' : 'waits for bin/osmia refresh'}</Badge>
+        )}
         <span className="font-bold text-basin-900">{record.file}</span>
         <span className="text-basin-600">
           {kindLabels[record.kind]}

@@ -18,8 +18,10 @@ export function ImportsPanel() {
         </Card>
       )}
       <p className="text-sm text-basin-700">
-        A historian file uploaded here is rolled up as soon as it lands, so performance, downtime and operating time show it at once. Files imported
-        from the command line are rolled up by <code className="rounded bg-basin-100 px-1 font-mono text-xs">bin/osmia refresh</code> (the nightly run).
+        Every file, uploaded here or imported with <code className="rounded bg-basin-100 px-1 font-mono text-xs">bin/osmia import</code>, is rolled up
+        as soon as it lands, so performance, downtime and operating time count it at once; the history says so for each import. A bulk load run
+        with <code className="rounded bg-basin-100 px-1 font-mono text-xs">--no-refresh</code> waits for{' '}
+        <code className="rounded bg-basin-100 px-1 font-mono text-xs">bin/osmia refresh</code>, and until then the KPI pages say so in a banner.
       </p>
       <ErrorBoundary title="Import history">
         <ImportHistory />

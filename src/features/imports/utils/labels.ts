@@ -68,6 +68,7 @@ const noteLabels: Record<string, string> = {
   formulaLikeText: 'Cells that look like spreadsheet formulas (stored as text)',
   kinds: 'Assets by kind',
   rowsUpdated: 'Rows updated',
+  refreshError: 'The refresh after this import failed (run bin/osmia refresh)',
 };
 
 /** A note of the import record as a label and a text: known keys in words, others as they come. */
