@@ -4,7 +4,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { roles, type Role } from '#shared/schemas/enums.ts';
 import type { RouteSpec } from '#server/routes/registry.ts';
-import { createTestApp, type TestApp } from '../../setup/app.ts';
+import { createTestApp, rolePasswords, type TestApp } from '../../setup/app.ts';
 import { accessFixtures, type Fixture } from './access-fixtures.ts';
 
 let t: TestApp;
@@ -52,6 +52,10 @@ describe('route × role table', () => {
       const expected = admitted ? '2xx' : role === 'anonymous' ? '401' : '403';
       const got = res.status >= 200 && res.status < 300 ? '2xx' : String(res.status);
       if (got !== expected) mismatches.push(`${key(route)}: expected ${expected}, got ${res.status} ${JSON.stringify(res.body).slice(0, 200)}`);
+      if (fixture.endsSession && role !== 'anonymous') {
+        const again = await request(t.app).post('/api/auth/login').send({ email: `${role}@test.example`, password: rolePasswords[role] });
+        t.cookies[role] = String(again.headers['set-cookie']?.[0] ?? '').split(';')[0];
+      }
     }
     expect(mismatches).toEqual([]);
   });
