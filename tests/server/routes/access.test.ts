@@ -4,6 +4,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { roles, type Role } from '#shared/schemas/enums.ts';
 import type { RouteSpec } from '#server/routes/registry.ts';
+import { pageById } from '#src/config/navigation.ts';
 import { createTestApp, rolePasswords, type TestApp } from '../../setup/app.ts';
 import { accessFixtures, type Fixture } from './access-fixtures.ts';
 
@@ -40,6 +41,13 @@ describe('route × role table', () => {
     for (const k of ['GET /api/health', 'POST /api/auth/login', 'GET /api/auth/me', 'GET /api/users', 'GET /api/openapi.json']) {
       expect(served).toContain(k);
     }
+  });
+
+  it('imports (upload, history, rejects) admit admin and engineer only, as the Imports page does', () => {
+    const importRoutes = t.app.locals.routes.filter((r) => r.path.startsWith('/api/imports'));
+    expect(importRoutes.map(key).sort()).toEqual(['GET /api/imports', 'GET /api/imports/:id', 'GET /api/imports/:id/rejects.csv', 'POST /api/imports']);
+    for (const route of importRoutes) expect(route.access, key(route)).toEqual(['admin', 'engineer']);
+    expect(pageById('imports').roles).toEqual(['admin', 'engineer']);
   });
 
   const who: (Role | 'anonymous')[] = ['anonymous', ...roles];
