@@ -32,10 +32,10 @@ const maxFieldLength = 64 * 1024;
 
 /**
  * Longest physical line a CSV may have. Papaparse re-reads the unfinished line with every 64 kB it
- * is given, so one 50 MB line cost about a minute of CPU and half a gigabyte before the row was
- * rejected; no export row comes near 1 MiB (register cells hold at most 4,000 characters, historian
- * cells 64 kB), so such a file is refused
- * as soon as the line passes the limit, after reading little more than that.
+ * is given, so the cost of one long line grows with the square of its length (an 8 MB line took 2 s
+ * of CPU, a 50 MB one about a minute and half a gigabyte) before the row was rejected. No export row
+ * comes near 1 MiB (register cells hold at most 4,000 characters, historian cells 64 kB), so such a
+ * file is refused as soon as a line passes the limit, after reading little more than that.
  */
 export const maxLineBytes = 1 << 20;
 
