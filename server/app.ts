@@ -9,6 +9,7 @@ import { ZodError } from 'zod';
 import { messageFor } from '#shared/errors.ts';
 import type { ErrorBody } from '#shared/schemas/error.ts';
 import { authenticate } from './auth/middleware.ts';
+import { describeErrorForLog, isDatabaseUnavailable } from './db/errors.ts';
 import type { AppDeps } from './deps.ts';
 import { HttpError } from './errors.ts';
 import { authRoutes } from './routes/auth.ts';
@@ -25,6 +26,9 @@ export interface AppOptions {
   log?: (line: string) => void;
 }
 
+/** What a 503 database-unavailable asks clients to wait before trying again. */
+const retryAfterSeconds = '30';
+
 function errorBody(code: HttpError['code'], message: string, details?: unknown): ErrorBody {
   return { error: { code, message, ...(details === undefined ? {} : { details }) } };
 }
@@ -34,7 +38,9 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): Express & { 
   const log = options.log ?? ((line: string) => console.error(line));
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  // Off unless TRUST_PROXY names the proxy: otherwise any client could choose its address (the
+  // sign-in rate limit's key) with an X-Forwarded-For header of its own.
+  app.set('trust proxy', deps.env.TRUST_PROXY);
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -80,6 +86,8 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): Express & { 
   const onError: ErrorRequestHandler = (err, _req, res, next) => {
     if (res.headersSent) return next(err);
     if (err instanceof HttpError) {
+      res.locals.errorCode = err.code;
+      if (err.code === 'database-unavailable') res.setHeader('Retry-After', retryAfterSeconds);
       res.status(err.status).json(errorBody(err.code, err.message, err.details));
     } else if (err instanceof ZodError) {
       res.status(400).json(errorBody('validation-failed', messageFor('validation-failed'), { issues: err.issues }));
@@ -88,8 +96,14 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): Express & { 
       res.status(400).json(errorBody('invalid-json', messageFor('invalid-json'), { issues }));
     } else if (err?.type === 'entity.too.large') {
       res.status(413).json(errorBody('file-too-large', 'The request body is too large.'));
+    } else if (isDatabaseUnavailable(err)) {
+      // Not a bug of ours: one line (no stack) so an outage does not bury the log.
+      log(`[${String(res.locals.requestId)}] database unavailable: ${describeErrorForLog(err).split('\n').filter((l) => !l.startsWith('    at ')).join(' | ')}`);
+      res.locals.errorCode = 'database-unavailable';
+      res.setHeader('Retry-After', retryAfterSeconds);
+      res.status(503).json(errorBody('database-unavailable', messageFor('database-unavailable')));
     } else {
-      log(`[${String(res.locals.requestId)}] ${err?.stack ?? String(err)}`);
+      log(`[${String(res.locals.requestId)}] ${describeErrorForLog(err)}`);
       res.status(500).json(errorBody('internal-error', messageFor('internal-error')));
     }
   };

@@ -1,9 +1,45 @@
+import { isIP } from 'node:net';
 import { z } from 'zod';
 
 const flag = z
   .enum(['true', 'false', '1', '0', 'yes', 'no', ''])
   .default('false')
   .transform((v) => v === 'true' || v === '1' || v === 'yes');
+
+const proxyNames = new Set(['loopback', 'linklocal', 'uniquelocal']);
+const isProxyAddress = (entry: string) => {
+  if (proxyNames.has(entry)) return true;
+  const [address, bits, ...rest] = entry.split('/');
+  const family = isIP(address);
+  if (family === 0 || rest.length > 0) return false;
+  if (bits === undefined) return true;
+  return /^\d{1,3}$/.test(bits) && Number(bits) <= (family === 4 ? 32 : 128);
+};
+
+/**
+ * Which reverse proxy's X-Forwarded-For / X-Forwarded-Proto to believe, in Express's `trust proxy`
+ * terms: off (default: the socket's address is the client's), a number of proxy hops, or a comma-separated
+ * list of proxy addresses, subnets and the names loopback, linklocal, uniquelocal. `true` (trust any
+ * sender) is refused: it would let every client choose its own address.
+ */
+export const trustProxySchema = z
+  .string()
+  .trim()
+  .default('')
+  .transform((v, ctx): false | number | string[] => {
+    const lower = v.toLowerCase();
+    if (['', 'false', 'off', 'no', '0'].includes(lower)) return false;
+    if (/^\d+$/.test(lower)) return Number(lower);
+    const entries = lower.split(',').map((e) => e.trim()).filter(Boolean);
+    if (['true', 'yes', 'on'].includes(lower) || entries.length === 0 || !entries.every(isProxyAddress)) {
+      ctx.addIssue({
+        code: 'custom',
+        message: 'must be off, a number of proxy hops, or the proxy addresses/subnets (e.g. loopback or 10.0.0.5,10.1.0.0/16); "true" would trust any client',
+      });
+      return z.NEVER;
+    }
+    return entries;
+  });
 
 /** Everything the server reads from its environment, validated once at start. */
 export const envSchema = z.object({
@@ -13,7 +49,9 @@ export const envSchema = z.object({
   PORT: z.coerce.number().int().min(0).max(65535).default(3000),
   JWT_SECRET: z.string().min(32, 'must be at least 32 characters'),
   SESSION_HOURS: z.coerce.number().positive().max(24 * 30).default(12),
+  /** Secure on every session cookie; without it, Secure is set when the request came over HTTPS (per TRUST_PROXY). */
   COOKIE_SECURE: flag,
+  TRUST_PROXY: trustProxySchema,
   LOGIN_RATE_LIMIT: z.coerce.number().int().positive().default(10),
   LOGIN_RATE_WINDOW_MINUTES: z.coerce.number().positive().default(15),
   UPLOAD_LIMIT_MB: z.coerce.number().positive().default(1024),

@@ -40,7 +40,7 @@ export function registerKpi(program: Command) {
       .option('--from <date>', 'window start, ISO date or date-time (a bare date is midnight in the site’s zone)')
       .option('--to <date>', 'window end (exclusive)')
       .option('--group-by <group>', 'grouping, where the KPI has one (element-life, forecast: all|train|stage|position|model)')
-      .option('--confidence <c>', 'confidence level of intervals, 0–1 (default: the plant setting, 0.9)')
+      .option('--confidence <c>', 'confidence level of intervals, 0.5–0.999 (default: the plant setting, 0.9)')
       .option('--json', 'print the JSON object the API serves')
       .action(
         action(async (flags: KpiFlags) => {

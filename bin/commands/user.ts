@@ -6,7 +6,32 @@ import { createUser } from '#server/services/users.ts';
 import { serverEnv } from '../config.ts';
 import { formatJson, formatTable, stdio } from '../output.ts';
 import { action, CliError } from '../run.ts';
+import { promptSecret, readSecretFromStdin } from '../secret-input.ts';
 import { withDb } from './db.ts';
+
+interface AddFlags {
+  email: string;
+  role: Role;
+  password?: string;
+  passwordStdin?: boolean;
+  name: string;
+  json?: boolean;
+}
+
+/** The new user's password: from standard input, asked on the terminal, or (warned) from the flag. */
+async function passwordFor(flags: AddFlags): Promise<string> {
+  if (flags.password !== undefined && flags.passwordStdin) throw new CliError('give either --password-stdin or --password, not both', 2);
+  if (flags.passwordStdin) return readSecretFromStdin();
+  if (flags.password !== undefined) {
+    stdio.err('Warning: --password puts the password on the command line, where other processes and the shell history can read it; use --password-stdin or answer the prompt instead.');
+    return flags.password;
+  }
+  if (!process.stdin.isTTY) throw new CliError('no password: pipe it with --password-stdin, or run on a terminal to be asked for it', 2);
+  const first = await promptSecret('Password (at least 10 characters): ');
+  const again = await promptSecret('Same password again: ');
+  if (first !== again) throw new CliError('the two passwords differ; nothing was added', 2);
+  return first;
+}
 
 export function registerUser(program: Command) {
   const user = program.command('user').description('users who can sign in');
@@ -16,12 +41,15 @@ export function registerUser(program: Command) {
     .description('add a user')
     .requiredOption('--email <email>', 'sign-in e-mail')
     .requiredOption('--role <role>', `one of ${roles.join(', ')}`)
-    .requiredOption('--password <password>', 'at least 10 characters')
+    .option('--password-stdin', 'read the password (at least 10 characters) from the first line of standard input')
+    .option('--password <password>', 'the password on the command line: visible to other processes, prefer --password-stdin or the prompt')
     .option('--name <name>', 'display name', '')
     .option('--json', 'print the new user as JSON')
+    .addHelpText('after', '\nWithout --password-stdin or --password, the password is asked on the terminal (not echoed).')
     .action(
-      action(async (opts: { email: string; role: Role; password: string; name: string; json?: boolean }) => {
-        const parsed = userCreateBodySchema.safeParse(opts);
+      action(async (opts: AddFlags) => {
+        const password = await passwordFor(opts);
+        const parsed = userCreateBodySchema.safeParse({ email: opts.email, role: opts.role, name: opts.name, password });
         if (!parsed.success) {
           throw new CliError(parsed.error.issues.map((i) => `--${i.path.join('.')}: ${i.message}`).join('; '), 2);
         }

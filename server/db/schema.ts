@@ -46,6 +46,8 @@ export const users = pgTable(
     disabled: boolean('disabled').notNull().default(false),
     createdAt: created(),
     lastLoginAt: instant('last_login_at'),
+    /** Raised by sign-out, a password or role change and disabling: sessions signed before end (auth/session.ts). */
+    sessionGeneration: integer('session_generation').notNull().default(0),
   },
   (t) => [
     uniqueIndex('users_email_key').on(sql`lower(${t.email})`),

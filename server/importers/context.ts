@@ -31,12 +31,18 @@ export interface KindResult {
   rowsUnchanged: number;
 }
 
+/** A text column cannot hold a NUL byte: a reject quoting one keeps U+FFFD in its place. */
+const storable = (s: string) => (s.includes('\u0000') ? s.replaceAll('\u0000', '\uFFFD') : s);
+
 export class RejectSink {
   readonly kept: (Reject & { raw?: string })[] = [];
   count = 0;
   add(line: number, reason: string, raw?: string[]) {
     this.count++;
-    if (this.kept.length < maxStoredRejects) this.kept.push({ line, reason, raw: raw?.join(',').slice(0, 2000) });
+    if (this.kept.length < maxStoredRejects) {
+      const text = raw?.join(',').slice(0, 2000);
+      this.kept.push({ line, reason: storable(reason), raw: text === undefined ? undefined : storable(text) });
+    }
   }
 }
 

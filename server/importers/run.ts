@@ -5,6 +5,7 @@ import { open, stat } from 'node:fs/promises';
 import { basename } from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import type { ImportKind } from '#shared/schemas/enums.ts';
+import { isKnownTimeZone } from '#shared/schemas/common.ts';
 import { importColumns, optionalColumns, type ImportRecord } from '#shared/schemas/imports.ts';
 import type { Db } from '../db/client.ts';
 import {
@@ -164,6 +165,11 @@ export async function runImport(db: Db, opts: ImportOptions): Promise<ImportReco
     derivedRefreshed: false,
     ...partial,
   });
+
+  // Before anything is written: an unknown zone would otherwise fail the import after its record exists.
+  if (opts.tz !== undefined && !isKnownTimeZone(opts.tz)) {
+    return record({ error: `Unknown time zone "${opts.tz}": expected an IANA name such as Europe/Berlin or UTC.` });
+  }
 
   let site: SiteRow | { create: string };
   try {

@@ -30,6 +30,30 @@ export interface Source {
 
 const maxFieldLength = 64 * 1024;
 
+/**
+ * Longest physical line a CSV may have. Papaparse re-reads the unfinished line with every 64 kB it
+ * is given, so the cost of one long line grows with the square of its length (an 8 MB line took 2 s
+ * of CPU, a 50 MB one about a minute and half a gigabyte) before the row was rejected. No export row
+ * comes near 1 MiB (register cells hold at most 4,000 characters, historian cells 64 kB), so such a
+ * file is refused as soon as a line passes the limit, after reading little more than that.
+ */
+export const maxLineBytes = 1 << 20;
+
+/** Number of line breaks (LF, CRLF or a lone CR) in the first `end` bytes of a file: read only to name a refused line. */
+async function lineBreaksBefore(path: string, end: number): Promise<number> {
+  if (end <= 0) return 0;
+  let n = 0;
+  let lastWasCr = false;
+  for await (const chunk of createReadStream(path, { end: end - 1 }) as AsyncIterable<Buffer>) {
+    for (const b of chunk) {
+      if (b === 0x0a && !lastWasCr) n++;
+      else if (b === 0x0d) n++;
+      lastWasCr = b === 0x0d;
+    }
+  }
+  return n;
+}
+
 async function peek(path: string, bytes: number): Promise<Buffer> {
   const fh = await open(path, 'r');
   try {
@@ -79,10 +103,26 @@ async function openCsv(path: string, head: Buffer): Promise<Source> {
   // The file's sha256 is taken on the way through, so a new file is read once, not twice.
   const hash = createHash('sha256');
   let digest: string | null = null;
+  // Bytes since the last line break (LF or CR), across chunks: the length of the line being read.
+  let lineBytes = 0;
   const counter = new Transform({
     transform(chunk: Buffer, _enc, done) {
       hash.update(chunk);
       const text = bytes === 0 && bom ? chunk.subarray(3) : chunk;
+      const lf = chunk.indexOf(0x0a);
+      const cr = chunk.indexOf(0x0d);
+      const first = lf === -1 ? cr : cr === -1 ? lf : Math.min(lf, cr);
+      if (lineBytes + (first === -1 ? chunk.length : first) > maxLineBytes) {
+        // A line within one chunk cannot pass the limit (chunks are 64 kB): only the one running on from before can.
+        const lineStart = bytes - lineBytes;
+        input.destroy();
+        lineBreaksBefore(path, lineStart).then(
+          (breaks) => done(new ImportFileError(`Line ${breaks + 1} is longer than 1 MiB (${maxLineBytes.toLocaleString('en-US')} bytes): this is not a file of rows; nothing was imported.`)),
+          (err: Error) => done(err),
+        );
+        return;
+      }
+      lineBytes = first === -1 ? lineBytes + chunk.length : chunk.length - 1 - Math.max(chunk.lastIndexOf(0x0a), chunk.lastIndexOf(0x0d));
       bytes += chunk.length;
       if (!sawQuote && text.includes(0x22)) sawQuote = true;
       done(null, text);
@@ -96,6 +136,7 @@ async function openCsv(path: string, head: Buffer): Promise<Source> {
   const input = createReadStream(path);
   const text$ = input.pipe(counter).pipe(new PassThrough({ encoding: 'utf8' }));
   input.on('error', (err) => text$.destroy(err));
+  counter.on('error', (err) => text$.destroy(err));
 
   const parseErrors: Source['parseErrors'] = [];
   const queue: string[][][] = [];
@@ -147,7 +188,7 @@ async function openCsv(path: string, head: Buffer): Promise<Source> {
         yield rows;
         continue;
       }
-      if (failure) throw new ImportFileError(`The file could not be read: ${failure.message}`);
+      if (failure) throw failure instanceof ImportFileError ? failure : new ImportFileError(`The file could not be read: ${failure.message}`);
       if (finished) return;
       await new Promise<void>((r) => (wake = r));
     }

@@ -1,3 +1,4 @@
+import { messageFor } from '#shared/errors.ts';
 import { healthSchema, type Health } from '#shared/schemas/health.ts';
 import type { AppDeps } from '../deps.ts';
 import type { RouteRegistry } from './registry.ts';
@@ -11,8 +12,9 @@ export function healthRoutes(r: RouteRegistry, { db }: AppDeps) {
     try {
       await db.$client.query('select 1');
       database = { up: true, latencyMs: Math.round((performance.now() - t0) * 10) / 10 };
-    } catch (err) {
-      database = { up: false, latencyMs: null, error: (err as Error).message };
+    } catch {
+      // Anyone may ask (no session): the driver's message names host and port, so it stays out.
+      database = { up: false, latencyMs: null, error: messageFor('database-unavailable') };
     }
     const body: Health = {
       status: database.up ? 'ok' : 'degraded',

@@ -18,7 +18,9 @@ import { parseColumnMap } from '../importers/column-map.ts';
 import { importDetail, importFile, importHistory, rejectsCsv } from '../services/imports.ts';
 import type { RouteRegistry } from './registry.ts';
 
-const readers = ['admin', 'engineer', 'manager'] as const;
+// Imports (upload, history, rejects) are engineering work: the same two roles as the Imports page
+// (src/config/navigation.ts) and the README's role table.
+const importers = ['admin', 'engineer'] as const;
 
 export function importRoutes(r: RouteRegistry, { db, env }: AppDeps) {
   const uploadDir = join(tmpdir(), 'osmia-uploads');
@@ -30,18 +32,23 @@ export function importRoutes(r: RouteRegistry, { db, env }: AppDeps) {
         return next(new HttpError(413, 'file-too-large', `The file is larger than the upload limit of ${env.UPLOAD_LIMIT_MB} MB.`));
       }
       if (err instanceof multer.MulterError) return next(badRequest('bad-request', `Upload refused: ${err.message}`));
+      // busboy's own parse errors ("Malformed part header", "Unexpected end of form") carry no code;
+      // a failing disk (ENOSPC…) does, and stays a server error.
+      if (err instanceof Error && (err as NodeJS.ErrnoException).code === undefined) {
+        return next(badRequest('bad-request', `Upload refused: the multipart body is malformed (${err.message}).`));
+      }
       next(err);
     });
 
   r.post(
     '/api/imports',
-    { access: ['admin', 'engineer'], summary: 'Upload a file and import it (multipart: file + kind, site, tz, strict, dryRun, map)', response: importRecordSchema },
+    { access: importers, summary: 'Upload a file and import it (multipart: file + kind, site, tz, strict, dryRun, map)', response: importRecordSchema },
     receive,
     async (req, res) => {
       const file = req.file;
       try {
-        const fields = importUploadFieldsSchema.parse(req.body ?? {});
         if (!file) throw badRequest('file-missing');
+        const fields = importUploadFieldsSchema.parse({ ...(req.body ?? {}), fileName: file.originalname });
         let columnMap;
         try {
           columnMap = fields.map ? parseColumnMap(fields.map) : undefined;
@@ -51,7 +58,7 @@ export function importRoutes(r: RouteRegistry, { db, env }: AppDeps) {
         const record = await importFile(db, {
           kind: fields.kind,
           path: file.path,
-          fileName: file.originalname,
+          fileName: fields.fileName,
           site: fields.site,
           tz: fields.tz,
           strict: fields.strict,
@@ -66,19 +73,19 @@ export function importRoutes(r: RouteRegistry, { db, env }: AppDeps) {
     },
   );
 
-  r.get('/api/imports', { access: readers, summary: 'Import history, newest first', query: importListQuerySchema, response: importHistorySchema }, async (req, res) => {
+  r.get('/api/imports', { access: importers, summary: 'Import history, newest first', query: importListQuerySchema, response: importHistorySchema }, async (req, res) => {
     const query = importListQuerySchema.parse(req.query);
     res.json({ imports: await importHistory(db, query) });
   });
 
-  r.get('/api/imports/:id', { access: readers, summary: 'One import with its first rejects', params: importIdParamsSchema, response: importDetailSchema }, async (req, res) => {
+  r.get('/api/imports/:id', { access: importers, summary: 'One import with its first rejects', params: importIdParamsSchema, response: importDetailSchema }, async (req, res) => {
     const { id } = importIdParamsSchema.parse(req.params);
     res.json(await importDetail(db, id));
   });
 
   r.get(
     '/api/imports/:id/rejects.csv',
-    { access: readers, summary: 'All rejected rows of an import as CSV', params: importIdParamsSchema, produces: 'text/csv' },
+    { access: importers, summary: 'All rejected rows of an import as CSV', params: importIdParamsSchema, produces: 'text/csv' },
     async (req, res) => {
       const { id } = importIdParamsSchema.parse(req.params);
       const lines = rejectsCsv(db, id);

@@ -5,13 +5,14 @@ import {
   userSchema,
   userUpdateBodySchema,
 } from '#shared/schemas/users.ts';
+import { issueSession } from '../auth/cookie.ts';
 import { currentUser } from '../auth/middleware.ts';
 import { listUsers } from '../db/queries/users.ts';
 import type { AppDeps } from '../deps.ts';
 import { changeUser, createUser } from '../services/users.ts';
 import type { RouteRegistry } from './registry.ts';
 
-export function userRoutes(r: RouteRegistry, { db, env }: AppDeps) {
+export function userRoutes(r: RouteRegistry, { db, env, sessionKey }: AppDeps) {
   r.get('/api/users', { access: ['admin'], summary: 'List users', response: userListSchema }, async (_req, res) => {
     res.json({ users: await listUsers(db) });
   });
@@ -33,7 +34,12 @@ export function userRoutes(r: RouteRegistry, { db, env }: AppDeps) {
     async (req, res) => {
       const { id } = userIdParamsSchema.parse(req.params);
       const body = userUpdateBodySchema.parse(req.body);
-      res.json(await changeUser(db, id, body, env.BCRYPT_COST, currentUser(res).id));
+      const actor = currentUser(res);
+      const { user, sessionGeneration, sessionsEnded } = await changeUser(db, id, body, env.BCRYPT_COST, actor.id);
+      // An admin who changed their own password or role keeps working in this session, on a new token;
+      // their other sessions end with the rest.
+      if (sessionsEnded && user.id === actor.id) await issueSession(req, res, env, sessionKey, { userId: user.id, role: user.role, generation: sessionGeneration });
+      res.json(user);
     },
   );
 }

@@ -19,7 +19,17 @@ export async function createUser(db: Db, body: UserCreateBody, cost: number): Pr
   return user;
 }
 
-export async function changeUser(db: Db, id: number, body: UserUpdateBody, cost: number, actorId: number): Promise<User> {
+/**
+ * Change a user. A new password, another role or disabling ends the user's earlier sessions; the
+ * answer carries the session generation a new token for this user must hold.
+ */
+export async function changeUser(
+  db: Db,
+  id: number,
+  body: UserUpdateBody,
+  cost: number,
+  actorId: number,
+): Promise<{ user: User; sessionGeneration: number; sessionsEnded: boolean }> {
   const existing = await findUserById(db, id);
   if (!existing) throw notFound('user-not-found');
   const losesAdmin = existing.role === 'admin' && ((body.role && body.role !== 'admin') || body.disabled === true);
@@ -30,18 +40,22 @@ export async function changeUser(db: Db, id: number, body: UserUpdateBody, cost:
   const { password, ...rest } = body;
   const values: Partial<{ name: string; role: Role; disabled: boolean; passwordHash: string }> = { ...rest };
   if (password) values.passwordHash = await hashPassword(password, cost);
-  const user = await updateUser(db, id, values);
-  if (!user) throw notFound('user-not-found');
-  return user;
+  const sessionsEnded = Boolean(password) || (body.role !== undefined && body.role !== existing.role) || (body.disabled === true && !existing.disabled);
+  const updated = await updateUser(db, id, values, { endSessions: sessionsEnded });
+  if (!updated) throw notFound('user-not-found');
+  return { ...updated, sessionsEnded };
 }
 
-/** Check e-mail and password; the same time is spent whether or not the e-mail exists. */
-export async function signIn(db: Db, email: string, password: string): Promise<User> {
+/**
+ * Check e-mail and password; the same time is spent whether or not the e-mail exists. Answers the
+ * user and the session generation the new token must carry.
+ */
+export async function signIn(db: Db, email: string, password: string): Promise<{ user: User; sessionGeneration: number }> {
   const found = await findUserWithHash(db, email);
   const ok = await verifyPassword(password, found?.passwordHash ?? decoyHash());
   if (!found || !ok) throw new HttpError(401, 'invalid-credentials');
   if (found.disabled) throw new HttpError(401, 'account-disabled');
   await touchLastLogin(db, found.id);
-  const { passwordHash: _omit, ...user } = found;
-  return user;
+  const { passwordHash: _omit, sessionGeneration, ...user } = found;
+  return { user, sessionGeneration };
 }

@@ -1,6 +1,59 @@
 import { z } from 'zod';
 
 /**
+ * C0 and C1 control characters and DEL. A NUL byte cannot be stored in a PostgreSQL text column
+ * (the insert fails), and the others have no business in a code, a name or an e-mail: every text
+ * field of the API and the CLI goes through one of the fragments below, so such input is a 400
+ * naming the field instead of a failed write.
+ */
+// eslint-disable-next-line no-control-regex -- matching control characters is the point
+const controlCharacters = /[\u0000-\u001F\u007F-\u009F]/;
+/** The same, except tab, line feed and carriage return, for text that may span lines. */
+// eslint-disable-next-line no-control-regex -- as above
+const controlCharactersExceptLineBreaks = /[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F-\u009F]/;
+export const controlCharacterMessage = 'must not contain control characters (such as a NUL byte or a line break)';
+
+/** A string on one line: no control characters at all (a password: kept as typed). Chain .min(), .max() after it. */
+export const singleLineTextSchema = z.string().refine((s) => !controlCharacters.test(s), { message: controlCharacterMessage });
+
+/** The same after trimming, so a tab or line break pasted around a code or an e-mail is dropped, not refused. */
+export const trimmedLineSchema = z
+  .string()
+  .trim()
+  .refine((s) => !controlCharacters.test(s), { message: controlCharacterMessage });
+
+/** A string that may hold tabs and line breaks, but no other control character. */
+export const multiLineTextSchema = z
+  .string()
+  .refine((s) => !controlCharactersExceptLineBreaks.test(s), { message: 'must not contain control characters (such as a NUL byte)' });
+
+/** Largest value of a PostgreSQL `integer` (serial) column. */
+export const maxSerialId = 2_147_483_647;
+
+/** A row id in a path (`/api/imports/:id`): a positive integer that fits the id column, else a 400. */
+export const idSchema = z.coerce
+  .number({ error: 'id must be a positive whole number.' })
+  .int('id must be a positive whole number.')
+  .positive('id must be a positive whole number.')
+  .max(maxSerialId, `id must be at most ${maxSerialId}.`);
+
+/** Is `zone` an IANA time zone this runtime knows (`Europe/Berlin`, `UTC`)? */
+export function isKnownTimeZone(zone: string): boolean {
+  try {
+    new Intl.DateTimeFormat('en-US', { timeZone: zone });
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+/** An IANA time zone name, checked against the runtime's zone database. */
+export const timeZoneSchema = trimmedLineSchema
+  .min(1)
+  .max(64)
+  .refine(isKnownTimeZone, { error: (issue) => `unknown time zone "${String(issue.input)}" (expected an IANA name such as Europe/Berlin or UTC)` });
+
+/**
  * An ISO 8601 calendar date (`2025-03-01`) or date-time with or without an offset
  * (`2025-03-01T06:00`, `2025-03-01T06:00:00Z`, `2025-03-01T06:00:00+01:00`). Kept as the raw string:
  * the server resolves a bare date or a naive date-time in the site's time zone (DESIGN §6), which a
@@ -14,14 +67,31 @@ export const isoDateOrDateTimeSchema = z.union([z.iso.date(), z.iso.datetime({ o
 export const isoInstantSchema = z.iso.datetime({ offset: true });
 
 /**
- * Confidence level of interval estimates, a fraction in (0, 1), default 0.9 (DESIGN §6). Coerced, so
- * the query string `confidence=0.95` and the CLI's `--confidence 0.95` both arrive as numbers.
+ * Bounds of a confidence level. Below 0.5 an interval says less than a coin toss; above 0.999 the
+ * chi-square and normal quantiles of the bounds run into the limits of double precision (at
+ * 0.9999999999999999 they are no longer finite), so the answer would be noise, not a bound.
+ */
+export const confidenceBounds = { min: 0.5, max: 0.999 } as const;
+const confidenceMessage = `confidence must be a number from ${confidenceBounds.min} to ${confidenceBounds.max}, e.g. 0.9.`;
+
+/** A confidence level as a number (the plant setting; answers echo it). */
+export const confidenceLevelSchema = z
+  .number({ error: confidenceMessage })
+  .min(confidenceBounds.min, confidenceMessage)
+  .max(confidenceBounds.max, confidenceMessage);
+
+/**
+ * Confidence level of interval estimates, default 0.9 (DESIGN §6). Coerced, so the query string
+ * `confidence=0.95` and the CLI's `--confidence 0.95` both arrive as numbers.
  */
 export const confidenceSchema = z.coerce
-  .number({ error: 'confidence must be a number between 0 and 1, e.g. 0.9.' })
-  .gt(0, 'confidence must be greater than 0.')
-  .lt(1, 'confidence must be less than 1.')
+  .number({ error: confidenceMessage })
+  .min(confidenceBounds.min, confidenceMessage)
+  .max(confidenceBounds.max, confidenceMessage)
   .default(0.9);
+
+/** A site or asset code in a query: one line, trimmed, at most 40 characters (the register's limit is 40). */
+export const codeQuerySchema = trimmedLineSchema.min(1).max(40, 'a code has at most 40 characters');
 
 /**
  * The window and filters every KPI query starts from: site and asset codes, the half-open window
@@ -29,8 +99,8 @@ export const confidenceSchema = z.coerce
  * Endpoints extend it with their own fields (`groupBy`, …).
  */
 export const windowQuerySchema = z.object({
-  site: z.string().trim().min(1).optional(),
-  asset: z.string().trim().min(1).optional(),
+  site: codeQuerySchema.optional(),
+  asset: codeQuerySchema.optional(),
   from: isoDateOrDateTimeSchema.optional(),
   to: isoDateOrDateTimeSchema.optional(),
   confidence: confidenceSchema,

@@ -1,9 +1,12 @@
 // zod schemas of one register row (after trimming), shared by the importers and their tests.
 // Timestamps stay strings here: the importer reads them in the site's time zone.
 import { z } from 'zod';
+import { multiLineTextSchema } from './common.ts';
 import { assetKinds, quantities, removalReasons, workOrderPriorities, workOrderStatuses, workOrderTypes } from './enums.ts';
 
-const text = (max: number) => z.string().max(max, `longer than ${max} characters`);
+// A NUL byte cannot be stored in a text column; register cells may be quoted multi-line text, so
+// tabs and line breaks stay allowed and the row is rejected (with its line) for any other control.
+const text = (max: number) => multiLineTextSchema.max(max, `longer than ${max} characters`);
 const required = (label: string, max = 200) => text(max).min(1, `${label} is empty`);
 const lower = (values: readonly string[], label: string) =>
   z

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { idSchema, multiLineTextSchema, singleLineTextSchema, timeZoneSchema, trimmedLineSchema } from './common.ts';
 import { importKinds, importStatuses } from './enums.ts';
 
 export const importKindSchema = z.enum(importKinds);
@@ -43,13 +44,14 @@ export const importListQuerySchema = z.object({
   limit: z.coerce.number().int().min(1).max(500).default(100),
 });
 
-export const importIdParamsSchema = z.object({ id: z.coerce.number().int().positive() });
+export const importIdParamsSchema = z.object({ id: idSchema });
 
 /** Fields of the multipart upload (POST /api/imports) beside the file. */
 export const importUploadFieldsSchema = z.object({
   kind: importKindSchema,
-  site: z.string().trim().min(1).max(40).optional(),
-  tz: z.string().trim().min(1).max(64).optional(),
+  site: trimmedLineSchema.min(1).max(40).optional(),
+  /** Checked before anything is written: an unknown zone is a 400, not a failed import record. */
+  tz: timeZoneSchema.optional(),
   strict: z
     .enum(['true', 'false', 'on', ''])
     .optional()
@@ -59,7 +61,9 @@ export const importUploadFieldsSchema = z.object({
     .optional()
     .transform((v) => v === 'true' || v === 'on'),
   /** Column map as JSON: {"Their header": "our_header"}. */
-  map: z.string().max(20_000).optional(),
+  map: multiLineTextSchema.max(20_000).optional(),
+  /** The uploaded file's name as the client sent it (kept in the history). */
+  fileName: singleLineTextSchema.min(1).max(255),
 });
 export type ImportUploadFields = z.infer<typeof importUploadFieldsSchema>;
 

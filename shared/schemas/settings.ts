@@ -1,11 +1,12 @@
 import { z } from 'zod';
+import { confidenceLevelSchema, trimmedLineSchema } from './common.ts';
 
 const settingFields = {
-  currency: z.string().trim().min(1).max(8),
+  currency: trimmedLineSchema.min(1).max(8),
   waterValuePerM3: z.number().nonnegative(),
   elementUnitCost: z.number().nonnegative(),
   crewHoursPerWeek: z.number().positive(),
-  confidence: z.number().gt(0.5).lt(1),
+  confidence: confidenceLevelSchema,
   tdsPerMicroSiemens: z.number().positive(),
   osmoticBarPerMgL: z.number().positive(),
   tcfUBelow25K: z.number().positive(),
@@ -15,7 +16,7 @@ const settingFields = {
   alertSaltPassageRisePct: z.number().positive().max(500),
   baselineChangeOutSharePct: z.number().positive().max(100),
   baselineChangeOutDays: z.number().positive().max(365),
-  digestRecipients: z.array(z.email()),
+  digestRecipients: z.array(trimmedLineSchema.pipe(z.email())),
 };
 
 /** Plant-wide settings an admin can change; every key always has a value. */

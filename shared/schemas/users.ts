@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { idSchema, singleLineTextSchema, trimmedLineSchema } from './common.ts';
 import { roles } from './enums.ts';
 
 export const roleSchema = z.enum(roles);
@@ -16,18 +17,20 @@ export type User = z.infer<typeof userSchema>;
 
 export const userListSchema = z.object({ users: z.array(userSchema) });
 
-export const emailSchema = z.string().trim().toLowerCase().pipe(z.email({ message: 'not a valid e-mail address' }));
-export const passwordSchema = z.string().min(10, 'at least 10 characters').max(200);
+/** Trimmed and case-folded: the form every lookup, the unique index and the sign-in rate limit use. */
+export const emailSchema = trimmedLineSchema.toLowerCase().pipe(z.email({ message: 'not a valid e-mail address' }));
+export const passwordSchema = singleLineTextSchema.min(10, 'at least 10 characters').max(200);
+const nameSchema = trimmedLineSchema.max(200);
 
 export const loginBodySchema = z.object({
   email: emailSchema,
-  password: z.string().min(1, 'required').max(200),
+  password: singleLineTextSchema.min(1, 'required').max(200),
 });
 export type LoginBody = z.infer<typeof loginBodySchema>;
 
 export const userCreateBodySchema = z.object({
   email: emailSchema,
-  name: z.string().trim().max(200).default(''),
+  name: nameSchema.default(''),
   role: roleSchema,
   password: passwordSchema,
 });
@@ -35,7 +38,7 @@ export type UserCreateBody = z.infer<typeof userCreateBodySchema>;
 
 export const userUpdateBodySchema = z
   .object({
-    name: z.string().trim().max(200),
+    name: nameSchema,
     role: roleSchema,
     disabled: z.boolean(),
     password: passwordSchema,
@@ -44,7 +47,7 @@ export const userUpdateBodySchema = z
   .refine((v) => Object.keys(v).length > 0, { message: 'nothing to change' });
 export type UserUpdateBody = z.infer<typeof userUpdateBodySchema>;
 
-export const userIdParamsSchema = z.object({ id: z.coerce.number().int().positive() });
+export const userIdParamsSchema = z.object({ id: idSchema });
 
 export const meSchema = z.object({ user: userSchema });
 export type Me = z.infer<typeof meSchema>;

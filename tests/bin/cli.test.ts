@@ -4,6 +4,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { importRecordSchema } from '#shared/schemas/imports.ts';
 import { reliabilityReportSchema } from '#shared/schemas/kpi.ts';
+import { signIn } from '#server/services/users.ts';
 import { createTestDatabase, type TestDatabase } from '../setup/db.ts';
 import { fileWith, plant } from '../server/importers/helpers.ts';
 
@@ -15,7 +16,12 @@ beforeAll(async () => {
 afterAll(() => t.close());
 
 function cli(...args: string[]) {
-  const r = spawnSync(osmia, args, { env: { ...process.env, DATABASE_URL: t.url, CI: '1' }, encoding: 'utf8', timeout: 120_000 });
+  return cliWithInput('', ...args);
+}
+
+/** Run with `input` piped to standard input (not a terminal). */
+function cliWithInput(input: string, ...args: string[]) {
+  const r = spawnSync(osmia, args, { env: { ...process.env, DATABASE_URL: t.url, CI: '1' }, encoding: 'utf8', timeout: 120_000, input });
   return { code: r.status, out: r.stdout, err: r.stderr };
 }
 
@@ -41,11 +47,33 @@ describe('bin/osmia', () => {
     expect(JSON.parse(r.out)).toEqual({ running: true, url: t.url });
   });
 
-  it('user add and user list', () => {
-    expect(cli('user', 'add', '--email', 'cli@test.example', '--role', 'finance', '--password', 'a-long-password').code).toBe(0);
+  it('user add --password-stdin reads the password from standard input, and user list shows the user', async () => {
+    const added = cliWithInput('a-long-password\n', 'user', 'add', '--email', 'cli@test.example', '--role', 'finance', '--password-stdin');
+    expect(added.code, added.err).toBe(0);
+    expect(added.err).toBe('');
     const list = cli('user', 'list', '--json');
     expect(JSON.parse(list.out).map((u: { email: string }) => u.email)).toContain('cli@test.example');
-    expect(cli('user', 'add', '--email', 'cli@test.example', '--role', 'finance', '--password', 'a-long-password').code).toBe(1);
+    // The line ending is not part of the password.
+    expect((await signIn(t.db, 'cli@test.example', 'a-long-password')).user.role).toBe('finance');
+    expect(cliWithInput('a-long-password\n', 'user', 'add', '--email', 'cli@test.example', '--role', 'finance', '--password-stdin').code).toBe(1);
+  });
+
+  it('user add refuses a short password from standard input, and asks for one when none is piped', () => {
+    const short = cliWithInput('short\r\n', 'user', 'add', '--email', 'short@test.example', '--role', 'finance', '--password-stdin');
+    expect(short.code).toBe(2);
+    expect(short.err).toMatch(/--password: at least 10 characters/);
+    const none = cli('user', 'add', '--email', 'none@test.example', '--role', 'finance');
+    expect(none.code).toBe(2);
+    expect(none.err).toMatch(/--password-stdin/);
+    expect(cliWithInput('a-long-password\n', 'user', 'add', '--email', 'both@test.example', '--role', 'finance', '--password-stdin', '--password', 'a-long-password').code).toBe(2);
+    expect(JSON.parse(cli('user', 'list', '--json').out).map((u: { email: string }) => u.email)).not.toContain('none@test.example');
+  });
+
+  it('user add --password still works, with a warning on stderr that other processes can read it', async () => {
+    const r = cli('user', 'add', '--email', 'flag@test.example', '--role', 'manager', '--password', 'flag-password-1');
+    expect(r.code).toBe(0);
+    expect(r.err).toMatch(/^Warning: --password puts the password on the command line/);
+    expect((await signIn(t.db, 'flag@test.example', 'flag-password-1')).user.role).toBe('manager');
   });
 
   it('import: 0 when every row went in, 3 when some were rejected, 1 when the file failed; --json is the import record', () => {

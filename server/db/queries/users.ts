@@ -6,7 +6,7 @@ import type { User } from '#shared/schemas/users.ts';
 
 type UserRow = typeof users.$inferSelect;
 
-const toUser = (row: Omit<UserRow, 'passwordHash'>): User => ({
+const toUser = (row: Omit<UserRow, 'passwordHash' | 'sessionGeneration'>): User => ({
   id: row.id,
   email: row.email,
   name: row.name,
@@ -21,22 +21,29 @@ export async function listUsers(db: Db): Promise<User[]> {
   return rows.map(toUser);
 }
 
-/** Every authenticated request asks this: a prepared statement, not a query built each time. */
-export async function findUserById(db: Db, id: number): Promise<User | undefined> {
+/**
+ * The user of a session and the session generation its token must carry. Every authenticated request
+ * asks this: one primary-key lookup, a prepared statement, not a query built each time.
+ */
+export async function findSessionUser(db: Db, id: number): Promise<{ user: User; sessionGeneration: number } | undefined> {
   const { rows } = await db.$client.query<Omit<UserRow, 'passwordHash'>>({
-    name: 'user-by-id',
-    text: `select id, email, name, role, disabled, created_at as "createdAt", last_login_at as "lastLoginAt" from users where id = $1`,
+    name: 'session-user-by-id',
+    text: `select id, email, name, role, disabled, created_at as "createdAt", last_login_at as "lastLoginAt", session_generation as "sessionGeneration" from users where id = $1`,
     values: [id],
   });
-  return rows[0] && toUser(rows[0]);
+  return rows[0] && { user: toUser(rows[0]), sessionGeneration: rows[0].sessionGeneration };
 }
 
-export async function findUserWithHash(db: Db, email: string): Promise<(User & { passwordHash: string }) | undefined> {
+export async function findUserById(db: Db, id: number): Promise<User | undefined> {
+  return (await findSessionUser(db, id))?.user;
+}
+
+export async function findUserWithHash(db: Db, email: string): Promise<(User & { passwordHash: string; sessionGeneration: number }) | undefined> {
   const [row] = await db
     .select()
     .from(users)
     .where(sql`lower(${users.email}) = lower(${email})`);
-  return row && { ...toUser(row), passwordHash: row.passwordHash };
+  return row && { ...toUser(row), passwordHash: row.passwordHash, sessionGeneration: row.sessionGeneration };
 }
 
 export async function insertUser(
@@ -47,13 +54,24 @@ export async function insertUser(
   return row && toUser(row);
 }
 
+/** With `endSessions`, the session generation goes up in the same statement: earlier tokens stop working. */
 export async function updateUser(
   db: Db,
   id: number,
   values: Partial<{ name: string; role: Role; disabled: boolean; passwordHash: string }>,
-): Promise<User | undefined> {
-  const [row] = await db.update(users).set(values).where(eq(users.id, id)).returning();
-  return row && toUser(row);
+  options: { endSessions?: boolean } = {},
+): Promise<{ user: User; sessionGeneration: number } | undefined> {
+  const set = options.endSessions ? { ...values, sessionGeneration: sql`${users.sessionGeneration} + 1` } : values;
+  const [row] = await db.update(users).set(set).where(eq(users.id, id)).returning();
+  return row && { user: toUser(row), sessionGeneration: row.sessionGeneration };
+}
+
+/** Sign-out: every session of the user ends. */
+export async function endUserSessions(db: Db, id: number): Promise<void> {
+  await db
+    .update(users)
+    .set({ sessionGeneration: sql`${users.sessionGeneration} + 1` })
+    .where(eq(users.id, id));
 }
 
 export async function touchLastLogin(db: Db, id: number): Promise<void> {

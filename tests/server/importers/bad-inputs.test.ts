@@ -2,8 +2,9 @@
 // where the whole file is refused. Line numbers are physical lines, the header being line 1.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ImportKind } from '#shared/schemas/enums.ts';
+import { maxLineBytes, openSource } from '#server/importers/source.ts';
 import { createTestDatabase, type TestDatabase } from '../../setup/db.ts';
-import { counts, importText, seedPlant } from './helpers.ts';
+import { counts, fileWith, importText, seedPlant } from './helpers.ts';
 
 let t: TestDatabase;
 beforeAll(async () => {
@@ -40,6 +41,9 @@ const refused: FileCase[] = [
   { name: 'unknown tag column in the wide layout', kind: 'historian', content: `timestamp,TR1.PP,NOPE.TAG\n2026-01-01T00:00:00Z,1,2\n`, error: /Unknown tag column: NOPE\.TAG/ },
   { name: 'only a timestamp column', kind: 'historian', content: `timestamp\n2026-01-01T00:00:00Z\n`, error: /only a timestamp column/ },
   { name: 'unknown site', kind: 'tags', content: `tag,asset,quantity,unit\nX,TR1,run_status,\n`, error: /Site "NOWHERE" does not exist/ },
+  { name: 'a line longer than 1 MiB', kind: 'historian', content: `${H}\n2026-05-01T00:00:00Z,TR1.PP,1,good\n2026-05-01T00:05:00Z,TR1.PP,${'9'.repeat(3 << 20)},good\n`, error: /^Line 3 is longer than 1 MiB/ },
+  { name: 'a header longer than 1 MiB', kind: 'work-orders', content: `${'h,'.repeat(1 << 20)}\nWO-1\n`, error: /^Line 1 is longer than 1 MiB/ },
+  { name: 'a long line after CR line ends is numbered by them', kind: 'historian', content: `${H}\r2026-05-02T00:00:00Z,TR1.PP,1,good\r\n${'x'.repeat(2 << 20)}\n`, error: /^Line 3 is longer than 1 MiB/ },
 ];
 
 /** Cases where the bad rows are rejected with line and reason, and the good rows go in. */
@@ -62,6 +66,7 @@ const rejected: RowCase[] = [
   { name: 'bad run status', kind: 'historian', content: `${H}\n2026-03-08T00:00:00Z,TR1.RUN,maybe,good\n`, rejects: [{ line: 2, reason: /run status/ }], inserted: 0 },
   { name: 'empty value', kind: 'historian', content: `${H}\n2026-03-09T00:00:00Z,TR1.PP,,good\n`, rejects: [{ line: 2, reason: /empty value/ }], inserted: 0 },
   { name: 'a quoted field spanning lines keeps later line numbers right', kind: 'work-orders', content: `${WO}\nWO-20,TR1,inspection,low,open,,"two\nlines",2026-03-01 08:00,,,,,,,,\nWO-21,TR1,inspection,urgent,open,,x,2026-03-01 08:00,,,,,,,,\n`, rejects: [{ line: 4, reason: /unknown priority/ }], inserted: 1 },
+  { name: 'control characters in a register cell', kind: 'work-orders', content: `${WO}\nWO-40,TR1,inspection,low,open,,bell\u0007,2026-03-01 08:00,,,,,,,,\nWO-41,TR1,inspection,low,open,,"tab\tand\nline break",2026-03-01 08:00,,,,,,,,\n`, rejects: [{ line: 2, reason: /description.*control characters/ }], inserted: 1 },
   { name: 'a huge line', kind: 'work-orders', content: `${WO}\nWO-22,TR1,inspection,low,open,,${'x'.repeat(200_000)},2026-03-01 08:00,,,,,,,,\nWO-23,TR1,inspection,low,open,,ok,2026-03-01 08:00,,,,,,,,\n`, rejects: [{ line: 2, reason: /longer than/ }], inserted: 1 },
   { name: 'completed before started', kind: 'work-orders', content: `${WO}\nWO-24,TR1-HPP,corrective,high,closed,SEAL-LEAK,x,2026-03-01 08:00,2026-03-01 10:00,2026-03-01 09:00,,,1,1,1,crew-a\n`, rejects: [{ line: 2, reason: /before started_at/ }], inserted: 0 },
   { name: 'negative labour hours', kind: 'work-orders', content: `${WO}\nWO-25,TR1-HPP,corrective,high,open,SEAL-LEAK,x,2026-03-01 08:00,,,,,-2,0,0,\n`, rejects: [{ line: 2, reason: /labour_hours -2 is below 0/ }], inserted: 0 },
@@ -100,6 +105,14 @@ describe('rejected rows', () => {
     expect(rec.status).toBe(inserted > 0 || rec.rowsUpdated > 0 ? 'partial' : rejects.length ? 'partial' : 'completed');
   });
 
+  it('a NUL byte past the first 64 kB rejects its row; the others go in', async () => {
+    const good = Array.from({ length: 1200 }, (_, i) => `WO-N${i},TR1,inspection,low,open,,padding text for the first kilobytes,2026-03-01 08:00,,,,,,,,`);
+    const rec = await importText(t.db, 'work-orders', [WO, ...good, 'WO-NUL,TR1,inspection,low,open,,nul\u0000byte,2026-03-01 08:00,,,,,,,,', ''].join('\n'));
+    expect(rec.status).toBe('partial');
+    expect(rec.rowsInserted).toBe(1200);
+    expect(rec.rejects).toEqual([{ line: 1202, reason: expect.stringMatching(/control characters/) }]);
+  });
+
   it('a header with no rows is accepted with 0 rows', async () => {
     const rec = await importText(t.db, 'historian', `${H}\n`);
     expect(rec).toMatchObject({ status: 'completed', rowsRead: 0, rowsInserted: 0 });
@@ -109,5 +122,40 @@ describe('rejected rows', () => {
     const rec = await importText(t.db, 'historian', `${H}\n2026-04-01T00:00:00Z,TR1.PP,x,good\n`);
     const { rows } = await t.db.$client.query(`select line, reason, raw from import_rejects where import_id = $1`, [rec.id]);
     expect(rows).toEqual([{ line: 2, reason: 'value "x" is not a number', raw: '2026-04-01T00:00:00Z,TR1.PP,x,good' }]);
+  });
+});
+
+describe('limits and options checked before anything is written', () => {
+  it('a multi-megabyte single line is refused after reading little more than the limit, and nothing is kept', async () => {
+    const size = 12 << 20;
+    const path = fileWith(`${H}\n2026-06-01T00:00:00Z,TR1.PP,${'7'.repeat(size)},good\n`);
+    const source = await openSource(path);
+    let rows = 0;
+    const reading = (async () => {
+      for await (const batch of source.batches) rows += batch.length;
+    })();
+    await expect(reading).rejects.toThrow(/^Line 2 is longer than 1 MiB/);
+    expect(rows).toBe(0);
+    // Read up to the limit and a few chunks past it, not the 12 MiB of the line.
+    expect(source.bytesRead()).toBeLessThan(2 * maxLineBytes);
+
+    const before = await counts(t.db);
+    const imports = (await t.db.$client.query('select count(*)::int as n from imports')).rows[0].n;
+    const rec = await importText(t.db, 'historian', `${H}\n2026-06-02T00:00:00Z,TR1.PP,${'7'.repeat(size)},good\n`);
+    expect(rec).toMatchObject({ status: 'failed', rowsInserted: 0, rowsRejected: 0 });
+    expect(rec.error).toMatch(/^Line 2 is longer than 1 MiB \(1,048,576 bytes\)/);
+    expect(await counts(t.db)).toEqual(before);
+    // The failed attempt is on record (with its reason), nothing else.
+    expect((await t.db.$client.query(`select count(*)::int as n from imports where status = 'failed' and error like 'Line 2 is longer%'`)).rows[0].n).toBe(1);
+    expect((await t.db.$client.query('select count(*)::int as n from imports')).rows[0].n).toBe(imports + 1);
+  });
+
+  it('an unknown time zone is refused before an import record or a site exists', async () => {
+    const before = await counts(t.db);
+    const imports = (await t.db.$client.query('select count(*)::int as n from imports')).rows[0].n;
+    const rec = await importText(t.db, 'assets', 'code,name,kind\nM1,M,pump\n', { site: 'MARS', tz: 'Mars/Olympus' });
+    expect(rec).toMatchObject({ id: null, status: 'failed', error: expect.stringMatching(/Unknown time zone "Mars\/Olympus"/) });
+    expect(await counts(t.db)).toEqual(before);
+    expect((await t.db.$client.query('select count(*)::int as n from imports')).rows[0].n).toBe(imports);
   });
 });

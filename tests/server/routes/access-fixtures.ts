@@ -10,6 +10,8 @@ export interface Fixture {
   attach?: { name: string; content: string };
   /** For requests that must differ on each call (e.g. a new user's e-mail). */
   build?: () => Fixture;
+  /** The request ends the caller's sessions (sign-out): the table signs the role in again after it. */
+  endsSession?: boolean;
 }
 
 let counter = 0;
@@ -22,7 +24,7 @@ export async function accessFixtures(t: TestApp): Promise<Record<string, Fixture
     'GET /api/health': { method: 'get', url: '/api/health' },
     'GET /api/openapi.json': { method: 'get', url: '/api/openapi.json' },
     'POST /api/auth/login': { method: 'post', url: '/api/auth/login', body: { email: 'admin@test.example', password: 'admin-password-1' } },
-    'POST /api/auth/logout': { method: 'post', url: '/api/auth/logout' },
+    'POST /api/auth/logout': { method: 'post', url: '/api/auth/logout', endsSession: true },
     'GET /api/auth/me': { method: 'get', url: '/api/auth/me' },
     'GET /api/users': { method: 'get', url: '/api/users' },
     'POST /api/users': {

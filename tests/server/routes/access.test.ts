@@ -4,7 +4,8 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { roles, type Role } from '#shared/schemas/enums.ts';
 import type { RouteSpec } from '#server/routes/registry.ts';
-import { createTestApp, type TestApp } from '../../setup/app.ts';
+import { pageById } from '#src/config/navigation.ts';
+import { createTestApp, rolePasswords, type TestApp } from '../../setup/app.ts';
 import { accessFixtures, type Fixture } from './access-fixtures.ts';
 
 let t: TestApp;
@@ -42,6 +43,13 @@ describe('route × role table', () => {
     }
   });
 
+  it('imports (upload, history, rejects) admit admin and engineer only, as the Imports page does', () => {
+    const importRoutes = t.app.locals.routes.filter((r) => r.path.startsWith('/api/imports'));
+    expect(importRoutes.map(key).sort()).toEqual(['GET /api/imports', 'GET /api/imports/:id', 'GET /api/imports/:id/rejects.csv', 'POST /api/imports']);
+    for (const route of importRoutes) expect(route.access, key(route)).toEqual(['admin', 'engineer']);
+    expect(pageById('imports').roles).toEqual(['admin', 'engineer']);
+  });
+
   const who: (Role | 'anonymous')[] = ['anonymous', ...roles];
   it.each(who)('%s gets 2xx exactly on the routes that admit it, else 401/403', async (role) => {
     const mismatches: string[] = [];
@@ -52,6 +60,10 @@ describe('route × role table', () => {
       const expected = admitted ? '2xx' : role === 'anonymous' ? '401' : '403';
       const got = res.status >= 200 && res.status < 300 ? '2xx' : String(res.status);
       if (got !== expected) mismatches.push(`${key(route)}: expected ${expected}, got ${res.status} ${JSON.stringify(res.body).slice(0, 200)}`);
+      if (fixture.endsSession && role !== 'anonymous') {
+        const again = await request(t.app).post('/api/auth/login').send({ email: `${role}@test.example`, password: rolePasswords[role] });
+        t.cookies[role] = String(again.headers['set-cookie']?.[0] ?? '').split(';')[0];
+      }
     }
     expect(mismatches).toEqual([]);
   });

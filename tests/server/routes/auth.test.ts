@@ -3,7 +3,10 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { errorBodySchema } from '#shared/schemas/error.ts';
 import { meSchema } from '#shared/schemas/users.ts';
+import { createApp } from '#server/app.ts';
 import { secretKey, sessionCookie, signSession } from '#server/auth/session.ts';
+import { EnvError, loadEnv } from '#server/env.ts';
+import { createUser } from '#server/services/users.ts';
 import { createTestApp, testSecret, type TestApp } from '../../setup/app.ts';
 
 let t: TestApp;
@@ -67,20 +70,25 @@ describe('sign-in', () => {
     expect(res1.status).toBe(401);
     expect(errorCode(res1.body)).toBe('session-expired');
 
-    const good = await signSession({ userId: 1, role: 'admin' }, key, 1);
+    const good = await signSession({ userId: 1, role: 'admin', generation: 0 }, key, 1);
     const [h, p, s] = good.split('.');
     const forgedPayload = Buffer.from(JSON.stringify({ ...JSON.parse(Buffer.from(p, 'base64url').toString()), sub: '2' })).toString('base64url');
     const res2 = await request(t.app).get('/api/auth/me').set('Cookie', `${sessionCookie}=${h}.${forgedPayload}.${s}`);
     expect(res2.status).toBe(401);
-    const otherKey = await signSession({ userId: 1, role: 'admin' }, secretKey('another-secret-another-secret-another'), 1);
+    const otherKey = await signSession({ userId: 1, role: 'admin', generation: 0 }, secretKey('another-secret-another-secret-another'), 1);
     const res3 = await request(t.app).get('/api/auth/me').set('Cookie', `${sessionCookie}=${otherKey}`);
     expect(res3.status).toBe(401);
   });
 
   it('sign-out clears the cookie', async () => {
-    const res = await request(t.app).post('/api/auth/logout').set('Cookie', t.cookies.admin);
+    const login = await request(t.app).post('/api/auth/login').send({ email: 'admin@test.example', password: 'admin-password-1' });
+    const cookie = String(login.headers['set-cookie']?.[0]).split(';')[0];
+    const res = await request(t.app).post('/api/auth/logout').set('Cookie', cookie);
     expect(res.status).toBe(204);
     expect(String(res.headers['set-cookie']?.[0])).toMatch(new RegExp(`${sessionCookie}=;`));
+    // Signing out ends every session of the user, the shared test cookie too: take a new one.
+    const again = await request(t.app).post('/api/auth/login').send({ email: 'admin@test.example', password: 'admin-password-1' });
+    t.cookies.admin = String(again.headers['set-cookie']?.[0]).split(';')[0];
   });
 
   it('a disabled user can no longer use an existing session', async () => {
@@ -91,5 +99,80 @@ describe('sign-in', () => {
     expect(res.status).toBe(401);
     expect(errorCode(res.body)).toBe('account-disabled');
     await request(t.app).patch(`/api/users/${finance.id}`).set('Cookie', t.cookies.admin).send({ disabled: false }).expect(200);
+  });
+});
+
+const bad = (email: string) => request(t.app).post('/api/auth/login').send({ email, password: 'not-the-password' });
+
+describe('sign-in rate limit', () => {
+  beforeAll(async () => {
+    for (const n of [1, 2, 3, 4]) {
+      await createUser(t.db, { email: `limit${n}@test.example`, name: '', role: 'finance', password: `limit-password-${n}` }, 4);
+    }
+  });
+
+  it('counts an e-mail with padding and other letter case as the same e-mail', async () => {
+    const statuses = [];
+    for (const email of ['limit1@test.example', '  limit1@test.example', 'LIMIT1@Test.Example\t', ' Limit1@test.example ']) statuses.push((await bad(email)).status);
+    expect(statuses).toEqual([401, 401, 401, 429]);
+  });
+
+  it('a padded address does not sign in while the bare one is limited', async () => {
+    for (let i = 0; i < 3; i++) expect((await bad('limit2@test.example')).status).toBe(401);
+    const padded = await request(t.app).post('/api/auth/login').send({ email: '   limit2@test.example  ', password: 'limit-password-2' });
+    expect(padded.status).toBe(429);
+    expect(errorCode(padded.body)).toBe('too-many-attempts');
+  });
+
+  it('believes no X-Forwarded-For header while TRUST_PROXY is off: a client cannot choose its address', async () => {
+    const statuses = [];
+    for (let i = 0; i < 4; i++) {
+      const res = await request(t.app).post('/api/auth/login').set('X-Forwarded-For', `203.0.113.${i + 1}`).send({ email: 'limit3@test.example', password: 'wrong-one' });
+      statuses.push(res.status);
+    }
+    expect(statuses).toEqual([401, 401, 401, 429]);
+  });
+
+  it('counts only wrong passwords: refused input takes nothing from the allowance', async () => {
+    for (let i = 0; i < 5; i++) {
+      const res = await request(t.app).post('/api/auth/login').send({ email: 'limit4@test.example', password: '' });
+      expect(res.status).toBe(400);
+    }
+    const ok = await request(t.app).post('/api/auth/login').send({ email: 'limit4@test.example', password: 'limit-password-4' });
+    expect(ok.status).toBe(200);
+    expect([(await bad('limit4@test.example')).status, (await bad('limit4@test.example')).status]).toEqual([401, 401]);
+  });
+});
+
+describe('TRUST_PROXY', () => {
+  const env = (value: string) =>
+    loadEnv({ NODE_ENV: 'test', DATABASE_URL: 'postgres://x@127.0.0.1/x', JWT_SECRET: testSecret, TRUST_PROXY: value });
+
+  it('is off by default and takes hop counts or proxy addresses; "true" and nonsense are refused', () => {
+    expect(loadEnv({ NODE_ENV: 'test', DATABASE_URL: 'postgres://x@127.0.0.1/x', JWT_SECRET: testSecret }).TRUST_PROXY).toBe(false);
+    expect(env('off').TRUST_PROXY).toBe(false);
+    expect(env('1').TRUST_PROXY).toBe(1);
+    expect(env('loopback, 10.0.0.0/8,192.0.2.7').TRUST_PROXY).toEqual(['loopback', '10.0.0.0/8', '192.0.2.7']);
+    for (const v of ['true', 'yes', 'proxy.example', '10.0.0.0/33']) expect(() => env(v), v).toThrow(EnvError);
+  });
+
+  it('behind a trusted proxy: the forwarded address keys the limit, and HTTPS makes the cookie Secure', async () => {
+    const proxied = createApp(
+      { db: t.db, env: loadEnv({ NODE_ENV: 'test', DATABASE_URL: t.url, JWT_SECRET: testSecret, LOGIN_RATE_LIMIT: '2', KPI_WARM_SECONDS: '0', TRUST_PROXY: 'loopback' }), sessionKey: secretKey(testSecret) },
+      { log: () => {} },
+    );
+    const from = (address: string) =>
+      request(proxied).post('/api/auth/login').set('X-Forwarded-For', address).send({ email: 'limit1@test.example', password: 'wrong-again' });
+    expect([(await from('198.51.100.1')).status, (await from('198.51.100.1')).status, (await from('198.51.100.1')).status]).toEqual([401, 401, 429]);
+    expect((await from('198.51.100.2')).status).toBe(401);
+
+    const https = await request(proxied).post('/api/auth/login').set('X-Forwarded-For', '198.51.100.3').set('X-Forwarded-Proto', 'https').send({ email: 'engineer@test.example', password: 'engineer-password-1' });
+    expect(https.status).toBe(200);
+    expect(String(https.headers['set-cookie']?.[0])).toMatch(/;\s*Secure/i);
+    const http = await request(proxied).post('/api/auth/login').set('X-Forwarded-For', '198.51.100.3').send({ email: 'engineer@test.example', password: 'engineer-password-1' });
+    expect(String(http.headers['set-cookie']?.[0])).not.toMatch(/;\s*Secure/i);
+    // Without a trusted proxy the header says nothing: no Secure over plain HTTP.
+    const direct = await request(t.app).post('/api/auth/login').set('X-Forwarded-Proto', 'https').send({ email: 'engineer@test.example', password: 'engineer-password-1' });
+    expect(String(direct.headers['set-cookie']?.[0])).not.toMatch(/;\s*Secure/i);
   });
 });

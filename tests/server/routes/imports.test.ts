@@ -33,7 +33,7 @@ describe('POST /api/imports', () => {
     expect(res.status).toBe(201);
     const record = importRecordSchema.parse(res.body);
     expect(record.status).toBe('partial');
-    const detail = importDetailSchema.parse((await request(t.app).get(`/api/imports/${record.id}`).set('Cookie', t.cookies.manager)).body);
+    const detail = importDetailSchema.parse((await request(t.app).get(`/api/imports/${record.id}`).set('Cookie', t.cookies.engineer)).body);
     expect(detail.rejects.map((r) => r.line)).toEqual([3, 4, 5]);
     const csv = await request(t.app).get(`/api/imports/${record.id}/rejects.csv`).set('Cookie', t.cookies.engineer);
     expect(csv.status).toBe(200);

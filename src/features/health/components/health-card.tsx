@@ -33,7 +33,7 @@ export function HealthCard() {
           <dd className="mt-0.5 font-bold text-basin-900">{health.version}</dd>
         </div>
       </dl>
-      {health.database.error && <p className="mt-4 text-sm text-ember-700">Database error: {health.database.error}</p>}
+      {health.database.error && <p className="mt-4 text-sm text-ember-700">{health.database.error}</p>}
     </Card>
   );
 }
