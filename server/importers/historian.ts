@@ -11,6 +11,7 @@ import {
   insertCoverage,
   markDirtyHours,
   tagsWithOverlap,
+  writeImportRollups,
   type TagSpan,
 } from '../db/queries/samples.ts';
 import type { KindContext, KindResult } from './context.ts';
@@ -27,6 +28,59 @@ interface TagInfo {
   convert: (v: number) => number;
   /** This file's span of the tag, filled while reading. */
   span?: Span;
+  /** The hour of good samples being summed for the rollups (see HourlyRollups); -1 before the first. */
+  hour: number;
+  n: number;
+  sum: number;
+  min: number;
+  max: number;
+  last: number;
+}
+
+const HOUR_MS = 3_600_000;
+
+/**
+ * Hourly rollups of good samples (count, sum, min, max, last instant), summed while the file streams,
+ * so an import need not leave them to a refresh that reads every sample again (that refresh took five
+ * times as long as the import itself on 5 M rows). A tag's samples arrive mostly in time order: one open
+ * hour per tag, closed into these columns when the hour changes; out-of-order samples just close more
+ * partial hours, which the database adds up (`writeImportRollups`). Numbers only, no object per hour.
+ */
+class HourlyRollups {
+  tagIds: number[] = [];
+  hours: number[] = [];
+  n: number[] = [];
+  sums: number[] = [];
+  mins: number[] = [];
+  maxs: number[] = [];
+  lasts: number[] = [];
+  close(tag: TagInfo) {
+    if (tag.n === 0) return;
+    this.tagIds.push(tag.id);
+    this.hours.push(tag.hour);
+    this.n.push(tag.n);
+    this.sums.push(tag.sum);
+    this.mins.push(tag.min);
+    this.maxs.push(tag.max);
+    this.lasts.push(tag.last);
+    tag.n = 0;
+  }
+  add(tag: TagInfo, tsMs: number, value: number) {
+    const hour = tsMs - (((tsMs % HOUR_MS) + HOUR_MS) % HOUR_MS);
+    if (hour !== tag.hour) {
+      this.close(tag);
+      tag.hour = hour;
+      tag.sum = 0;
+      tag.min = Infinity;
+      tag.max = -Infinity;
+      tag.last = -Infinity;
+    }
+    tag.n++;
+    tag.sum += value;
+    if (value < tag.min) tag.min = value;
+    if (value > tag.max) tag.max = value;
+    if (tsMs > tag.last) tag.last = tsMs;
+  }
 }
 
 interface Span {
@@ -135,7 +189,7 @@ export async function importHistorian(ctx: KindContext): Promise<KindResult> {
     const unit = unitFor(t.quantity, t.sourceUnit);
     if (!unit.ok) throw new ImportFileError(`Tag ${t.name} has an unusable unit: ${unit.reason}`);
     const identity = unit.convert(1) === 1 && unit.convert(0) === 0;
-    tags.set(t.name.toLowerCase(), { id: t.id, name: t.name, isStatus: t.quantity === 'run_status', identity, convert: unit.convert });
+    tags.set(t.name.toLowerCase(), { id: t.id, name: t.name, isStatus: t.quantity === 'run_status', identity, convert: unit.convert, hour: -1, n: 0, sum: 0, min: 0, max: 0, last: 0 });
   }
   if (tags.size === 0) throw new ImportFileError(`Site ${site.code} has no tags: import the tag map first (osmia import tags …).`);
 
@@ -162,6 +216,7 @@ export async function importHistorian(ctx: KindContext): Promise<KindResult> {
   let copyError: Error | undefined;
   copy.on('error', (err: Error) => (copyError ??= err));
   const writer = new BinaryCopyWriter(copy, () => copyError);
+  const rollups = new HourlyRollups();
   const touched: TagInfo[] = [];
   let rowsRead = 0;
   let samples = 0;
@@ -211,6 +266,7 @@ export async function importHistorian(ctx: KindContext): Promise<KindResult> {
   const record = (tag: TagInfo, value: number, quality: number) => {
     writer.row(tag.id, lastTimeMs, value, quality);
     samples++;
+    if ((quality & 0xc0) === 0xc0) rollups.add(tag, lastTimeMs, value);
     let span = tag.span;
     if (!span) {
       span = tag.span = { from: lastTimeMs, to: lastTimeMs, rows: 0, last: -Infinity, ordered: true };
@@ -311,7 +367,18 @@ export async function importHistorian(ctx: KindContext): Promise<KindResult> {
     unchanged += n;
   }
   if (ctx.importId !== null) await insertCoverage(client, ctx.importId, tagSpans);
-  await markDirtyHours(client, tagSpans);
+  // Rollups: a tag whose samples cannot repeat earlier ones (no overlap with an earlier import, in time
+  // order) gets the hourly rows summed while reading, merged into any row an earlier import left at the
+  // edge hours. The others — repeats were removed after the COPY, so the sums would be off — and the
+  // run-status tags (whose stop events refresh derives) are queued for refresh as before.
+  for (const tag of touched) rollups.close(tag);
+  const suspectIds = new Set(suspects.map((x) => x.tagId));
+  const summed = new Set(touched.filter((t) => !suspectIds.has(t.id)).map((t) => t.id));
+  await writeImportRollups(client, rollups, summed);
+  await markDirtyHours(
+    client,
+    tagSpans.filter((x) => !summed.has(x.tagId) || touched.find((t) => t.id === x.tagId)!.isStatus),
+  );
   ctx.notes.samplesRead = samples;
   ctx.notes.tags = tagSpans.length;
   if (badQualities) ctx.notes.samplesNotGoodQuality = badQualities;

@@ -1,3 +1,7 @@
+import { Readable } from 'node:stream';
+import { pipeline } from 'node:stream/promises';
+import { from as copyFrom } from 'pg-copy-streams';
+import type pg from 'pg';
 import type { Queryable } from './queryable.ts';
 
 export interface TagSpan {
@@ -75,4 +79,51 @@ export async function markDirtyHours(q: Queryable, spans: TagSpan[]): Promise<vo
 export async function summarizeNewSamples(q: Queryable): Promise<number> {
   const { rows } = await q.query<{ n: number }>(`select brin_summarize_new_values('samples_ts_brin')::int as n`);
   return rows[0].n;
+}
+
+/** Partial hourly rollups of good samples, column by column (one entry per tag and partial hour). */
+export interface RollupColumns {
+  tagIds: readonly number[];
+  hours: readonly number[];
+  n: readonly number[];
+  sums: readonly number[];
+  mins: readonly number[];
+  maxs: readonly number[];
+  lasts: readonly number[];
+}
+
+/**
+ * Write an import's hourly rollups of the tags in `tagIds` (inside the import's transaction): partial
+ * hours of a tag are added up, and an hour that already has a row — an earlier import's samples at the
+ * edge of this one's span — is merged with it (counts and sums add; the mean is their ratio). Streamed
+ * with COPY into a temporary table, then one insert-select.
+ */
+export async function writeImportRollups(q: pg.PoolClient, r: RollupColumns, tagIds: ReadonlySet<number>): Promise<number> {
+  const rows: number[] = [];
+  for (let i = 0; i < r.tagIds.length; i++) if (tagIds.has(r.tagIds[i]!)) rows.push(i);
+  if (rows.length === 0) return 0;
+  await q.query(`create temporary table if not exists import_rollups (tag_id int, hour timestamptz, n int, s float8, mn float8, mx float8, last_ts timestamptz) on commit drop`);
+  const lines = function* () {
+    const iso = (ms: number) => new Date(ms).toISOString();
+    for (let start = 0; start < rows.length; start += 5000) {
+      let chunk = '';
+      for (const i of rows.slice(start, start + 5000)) {
+        chunk += `${r.tagIds[i]}\t${iso(r.hours[i]!)}\t${r.n[i]}\t${r.sums[i]}\t${r.mins[i]}\t${r.maxs[i]}\t${iso(r.lasts[i]!)}\n`;
+      }
+      yield chunk;
+    }
+  };
+  await pipeline(Readable.from(lines()), q.query(copyFrom('copy import_rollups from stdin')));
+  const { rowCount } = await q.query(
+    `insert into sample_hourly (tag_id, hour, n, mean, min, max, last_ts)
+     select tag_id, hour, sum(n), sum(s) / sum(n), min(mn), max(mx), max(last_ts) from import_rollups group by tag_id, hour
+     on conflict (tag_id, hour) do update set
+       n = sample_hourly.n + excluded.n,
+       mean = (sample_hourly.mean * sample_hourly.n + excluded.mean * excluded.n) / (sample_hourly.n + excluded.n),
+       min = least(sample_hourly.min, excluded.min),
+       max = greatest(sample_hourly.max, excluded.max),
+       last_ts = greatest(sample_hourly.last_ts, excluded.last_ts)`,
+  );
+  await q.query('truncate import_rollups');
+  return rowCount ?? 0;
 }
