@@ -1,5 +1,5 @@
 import type { Db } from '../db/client.ts';
-import { claimDirtyRanges, markAllDirty, rebuildHourly, rebuildStops, runStatusTags } from '../db/queries/derived.ts';
+import { claimDirtyRanges, hasDirtyHours, markAllDirty, rebuildHourly, rebuildStops, runStatusTags } from '../db/queries/derived.ts';
 import { markImportsRefreshed } from '../db/queries/imports.ts';
 import { rebuildJobSpans } from '../db/queries/job-steps.ts';
 import { summarizeNewSamples } from '../db/queries/samples.ts';
@@ -30,8 +30,9 @@ export async function refresh(db: Db, options: { full?: boolean; log?: (line: st
   let jobSpansRebuilt = 0;
   try {
     // The BRIN ranges imports filled since the last run: summarized first, so the range scans below
-    // read only their own blocks (imports leave this to refresh to stay as fast as a plain COPY).
-    await summarizeNewSamples(client);
+    // read only their own blocks (imports leave this to refresh to stay as fast as a plain COPY). With
+    // nothing queued there is no range scan to speed up (autosummarize gets there in the background).
+    if (options.full || (await hasDirtyHours(client))) await summarizeNewSamples(client);
     await client.query('begin');
     // Grouping a year of samples by tag and hour is one big hash aggregate: give it room.
     await client.query(`set local work_mem = '256MB'`);

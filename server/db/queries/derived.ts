@@ -38,6 +38,12 @@ export async function markTagsDirty(q: Queryable, tagIds: readonly number[]): Pr
   );
 }
 
+/** Whether any hours wait for refresh. */
+export async function hasDirtyHours(q: Queryable): Promise<boolean> {
+  const { rows } = await q.query<{ any: boolean }>(`select exists (select 1 from dirty_hours) as any`);
+  return rows[0]!.any;
+}
+
 /** Mark every hour of every tag that has samples as dirty (a full rebuild). */
 export async function markAllDirty(q: Queryable): Promise<number> {
   const { rowCount } = await q.query(
