@@ -1,23 +1,58 @@
 import type { Command } from 'commander';
 import { HttpError } from '#server/errors.ts';
 import { catchUpDerived } from '#server/services/freshness.ts';
-import { answerKpi, kpiCatalog, withPlantDefaults } from '#server/services/kpi-catalog.ts';
+import { ZodError } from 'zod';
+import type { Freshness } from '#shared/schemas/common.ts';
+import type { Settings } from '#shared/schemas/settings.ts';
+import type { Db } from '#server/db/client.ts';
+import {
+  downtimeKpi,
+  elementLifeKpi,
+  forecastKpi,
+  maintenanceMixKpi,
+  performanceKpi,
+  reliabilityKpi,
+  timeToCompleteKpi,
+  type Kpi,
+} from '#server/services/kpi-catalog.ts';
+import { getSettings } from '#server/services/settings.ts';
+import { formatDowntime } from '../formatters/downtime.ts';
+import { formatElementLife } from '../formatters/element-life.ts';
+import { formatForecast } from '../formatters/forecast.ts';
+import { formatMaintenanceMix } from '../formatters/maintenance-mix.ts';
+import { formatPerformance } from '../formatters/performance.ts';
+import { formatReliability } from '../formatters/reliability.ts';
+import { formatTimeToComplete } from '../formatters/time-to-complete.ts';
 import { formatJson, stdio } from '../output.ts';
 import { action, CliError } from '../run.ts';
 import { withDb } from './db.ts';
 
-type Formatter = (report: never) => string;
+/** A KPI with the pure formatter that prints its answer as a table (bin/formatters/<kpi>.ts). */
+interface KpiCommand {
+  kpi: Kpi;
+  run: (db: Db, raw: Record<string, unknown>, settings: Settings) => Promise<{ answer: Freshness; table: () => string }>;
+}
 
-/** The pure formatter of each KPI (bin/formatters/<kpi>.ts), loaded when the command runs. */
-const formatters: Record<string, () => Promise<Formatter>> = {
-  reliability: async () => (await import('../formatters/reliability.ts')).formatReliability,
-  'element-life': async () => (await import('../formatters/element-life.ts')).formatElementLife,
-  forecast: async () => (await import('../formatters/forecast.ts')).formatForecast,
-  'time-to-complete': async () => (await import('../formatters/time-to-complete.ts')).formatTimeToComplete,
-  downtime: async () => (await import('../formatters/downtime.ts')).formatDowntime,
-  performance: async () => (await import('../formatters/performance.ts')).formatPerformance,
-  'maintenance-mix': async () => (await import('../formatters/maintenance-mix.ts')).formatMaintenanceMix,
-};
+/** Pairs a KPI with its formatter, with the answer's type checked between them. */
+function command<Answer extends Freshness>(kpi: Kpi<Answer>, format: (answer: Answer) => string): KpiCommand {
+  return {
+    kpi,
+    run: async (db, raw, settings) => {
+      const answer = await kpi.ask(raw, settings).answer(db);
+      return { answer, table: () => format(answer) };
+    },
+  };
+}
+
+const commands: KpiCommand[] = [
+  command(reliabilityKpi, formatReliability),
+  command(elementLifeKpi, formatElementLife),
+  command(forecastKpi, formatForecast),
+  command(timeToCompleteKpi, formatTimeToComplete),
+  command(downtimeKpi, formatDowntime),
+  command(performanceKpi, formatPerformance),
+  command(maintenanceMixKpi, formatMaintenanceMix),
+];
 
 interface KpiFlags {
   site?: string;
@@ -31,7 +66,7 @@ interface KpiFlags {
 
 export function registerKpi(program: Command) {
   const kpi = program.command('kpi').description('compute a KPI and print it as a table, or as JSON with --json');
-  for (const k of kpiCatalog) {
+  for (const { kpi: k, run } of commands) {
     kpi
       .command(k.name)
       .description(k.summary)
@@ -49,16 +84,17 @@ export function registerKpi(program: Command) {
             new CliError(issues.map((i) => `--${String(i.path[0] ?? '')}: ${i.message}`).join('; '), 2);
           const checked = k.query.safeParse(input);
           if (!checked.success) throw usage(checked.error.issues);
-          const format = await formatters[k.name]();
           await withDb(async (db) => {
-            const parsed = k.query.safeParse(await withPlantDefaults(db, input));
-            if (!parsed.success) throw usage(parsed.error.issues);
-            if (k.readsDerived) await catchUpDerived(db);
-            const report = (await answerKpi(db, k, parsed.data as object).catch((err: unknown) => {
+            let answered;
+            try {
+              if (k.readsDerived) await catchUpDerived(db);
+              answered = await run(db, input, await getSettings(db));
+            } catch (err) {
+              if (err instanceof ZodError) throw usage(err.issues);
               throw err instanceof HttpError ? new CliError(err.message) : err;
-            })) as { warnings: string[] };
-            for (const warning of report.warnings) stdio.err(`Warning: ${warning}`);
-            stdio.out(flags.json ? formatJson(report) : format(report as never));
+            }
+            for (const warning of answered.answer.warnings) stdio.err(`Warning: ${warning}`);
+            stdio.out(flags.json ? formatJson(answered.answer) : answered.table());
           });
         }),
       );

@@ -1,7 +1,7 @@
 import type { Request, Response } from 'express';
 import { dataVersionAndSettings } from '../db/queries/data-version.ts';
 import type { AppDeps } from '../deps.ts';
-import { answerKpi, kpiCatalog, plantDefaults } from '../services/kpi-catalog.ts';
+import { kpiCatalog } from '../services/kpi-catalog.ts';
 import { catchUpDerived } from '../services/freshness.ts';
 import { KpiCache, type CacheAnswer } from '../services/kpi-cache.ts';
 import { KpiWarmer } from '../services/kpi-warmer.ts';
@@ -35,12 +35,12 @@ export function kpiRoutes(r: RouteRegistry, { db, env, onClose }: AppDeps) {
   }
   for (const kpi of kpiCatalog) {
     r.get(`/api/kpi/${kpi.name}`, { access: kpi.access, summary: kpi.summary, query: kpi.query, response: kpi.response }, async (req, res) => {
-      // The data version, the plant's settings (for its default confidence) and what waits for refresh: one round trip.
+      // The data version, the plant's settings (read once, passed down) and what waits for refresh: one round trip.
       let read = await dataVersionAndSettings(db.$client);
-      const query = kpi.query.parse(plantDefaults({ ...req.query }, settingsOf(read.stored))) as object;
+      const question = kpi.ask({ ...req.query }, settingsOf(read.stored));
       // A little imported data not yet rolled up is rolled up now, so this answer already counts it.
       if (kpi.readsDerived && (await catchUpDerived(db, read.lagTagHours))) read = await dataVersionAndSettings(db.$client);
-      sendCached(req, res, await cache.get(read.version, kpi.name, query, () => answerKpi(db, kpi, query)));
+      sendCached(req, res, await cache.get(read.version, kpi.name, question.query, () => question.answer(db)));
     });
   }
 }

@@ -2,6 +2,7 @@
 // not, their cause, lost volume and cost, with totals and Pareto tables. Also home of the run-status
 // history that reliability reads too: stop events from `downtime_events` turned into the edge samples the
 // shared calculations take, so no request reads the raw samples table.
+import type { Settings } from '#shared/schemas/settings.ts';
 import type { BeforeFreshness } from '#shared/schemas/common.ts';
 import { downtimeReport, type DowntimeAssetInput, type DowntimeWorkOrder } from '#shared/kpi/downtime.ts';
 import type { RunStatusSample } from '#shared/kpi/operating-time.ts';
@@ -16,7 +17,6 @@ import { goodDataExtents } from '../db/queries/sample-hourly.ts';
 import { listTags, type TagRow } from '../db/queries/tags.ts';
 import { listWorkOrdersReportedOrOutOfServiceIn } from '../db/queries/work-orders.ts';
 import { ancestry, resolveScope } from './scope.ts';
-import { getSettings } from './settings.ts';
 
 /** Longest list of work orders, tags or windows given as provenance; longer lists are cut and counted. */
 export const PROVENANCE_CAP = 200;
@@ -150,8 +150,8 @@ export type DowntimeAnswer = Omit<BeforeFreshness<DowntimeReport>, 'totals' | 'p
  * Degenerate input: no asset with a run-status tag in scope → no events, no totals, a note; a site with no
  * data at all → an empty window [t, t) at the time of asking, with a note.
  */
-export async function getDowntime(db: Db, query: DowntimeQuery): Promise<DowntimeAnswer> {
-  const [scope, settings] = await Promise.all([resolveScope(db, query), getSettings(db)]);
+export async function getDowntime(db: Db, query: DowntimeQuery, settings: Settings): Promise<DowntimeAnswer> {
+  const scope = await resolveScope(db, query);
   const { site, assets, inScope } = scope;
   const base = { site: site.code, currency: settings.currency, waterValuePerM3: settings.waterValuePerM3 };
   if (!scope.from || !scope.to) {

@@ -1,6 +1,7 @@
 // Element replacement forecast: the elements in service at the start, their ages, the Weibull fit of
 // their group (the same lives and window rule as element-life), the next calendar months in the
 // site's time zone — then shared/kpi/forecast.ts.
+import type { Settings } from '#shared/schemas/settings.ts';
 import type { BeforeFreshness } from '#shared/schemas/common.ts';
 import { TZDate } from '@date-fns/tz';
 import { vesselWorkCautions } from '#shared/cautions.ts';
@@ -14,7 +15,6 @@ import {
 import type { ForecastQuery, ForecastReport, Provenance } from '#shared/schemas/kpi.ts';
 import type { Db } from '../db/client.ts';
 import type { ElementInstall } from '../db/queries/elements.ts';
-import { getSettings } from './settings.ts';
 import {
   compareGroupKeys,
   elementScope,
@@ -112,8 +112,8 @@ function fitOf(lives: readonly ElementLifeObservation[], confidence: number): Fi
  * elements are not forecast (listed in the notes) rather than shown as zero. Totals add the groups
  * month by month. Every answer carries the vessel-work cautions: a replacement opens pressure vessels.
  */
-export async function getForecast(db: Db, query: ForecastQuery): Promise<ForecastAnswer> {
-  const [{ scope, places, installs }, settings] = await Promise.all([elementScope(db, query), getSettings(db)]);
+export async function getForecast(db: Db, query: ForecastQuery, settings: Settings): Promise<ForecastAnswer> {
+  const { scope, places, installs } = await elementScope(db, query);
   // The service may read the clock; only shared/ may not. Without any data there is no other start
   // (and no installs).
   const asOf = scope.to ?? new Date();

@@ -1,7 +1,8 @@
 import type { Db } from '../db/client.ts';
 import { dataVersionAndSettings } from '../db/queries/data-version.ts';
 import type { KpiCache } from './kpi-cache.ts';
-import { answerKpi, kpiCatalog } from './kpi-catalog.ts';
+import { kpiCatalog } from './kpi-catalog.ts';
+import { settingsOf } from './settings.ts';
 
 /** At most this many questions are recomputed after a change, the most recently asked first. */
 export const warmQuestionLimit = 20;
@@ -46,7 +47,7 @@ export class KpiWarmer {
 
   private async checkOnce(): Promise<void> {
     try {
-      const { version } = await dataVersionAndSettings(this.db.$client);
+      const { version, stored } = await dataVersionAndSettings(this.db.$client);
       const settled = version === this.seen;
       this.seen = version;
       if (!settled || version === this.warmed) return;
@@ -54,7 +55,8 @@ export class KpiWarmer {
         if (this.stopped) return;
         const kpi = kpiCatalog.find((k) => k.name === name);
         if (!kpi) continue;
-        await this.cache.get(version, name, query, () => answerKpi(this.db, kpi, query));
+        const question = kpi.ask({ ...query }, settingsOf(stored));
+        await this.cache.get(version, name, question.query, () => question.answer(this.db));
       }
       this.warmed = version;
     } catch {

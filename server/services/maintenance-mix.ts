@@ -1,5 +1,6 @@
 // Maintenance mix: the work orders of the scope and window, the crews' weekly capacity (setting) and
 // the permeate produced (hourly rollups of permeate-flow tags) — then shared/kpi/maintenance-mix.ts.
+import type { Settings } from '#shared/schemas/settings.ts';
 import type { BeforeFreshness } from '#shared/schemas/common.ts';
 import { maintenanceMix, type MixWorkOrder } from '#shared/kpi/maintenance-mix.ts';
 import type { WorkOrderStatus, WorkOrderType } from '#shared/schemas/enums.ts';
@@ -10,7 +11,6 @@ import type { AssetRecord } from '../db/queries/assets.ts';
 import { integrateHourlyMeans } from '../db/queries/sample-hourly.ts';
 import { listTags, type TagRow } from '../db/queries/tags.ts';
 import { listWorkOrdersOpenDuring } from '../db/queries/work-orders.ts';
-import { getSettings } from './settings.ts';
 import { ancestry, resolveScope, subtree, type KpiScope } from './scope.ts';
 
 const HOUR_MS = 3_600_000;
@@ -108,8 +108,8 @@ async function producedVolume(db: Db, scope: KpiScope, from: Date, to: Date): Pr
  * a zero or unknown denominator is null with a sentence saying why; a site with no data at all gets
  * an empty window ending now.
  */
-export async function getMaintenanceMix(db: Db, query: MaintenanceMixQuery): Promise<BeforeFreshness<MaintenanceMixReport>> {
-  const [scope, settings] = await Promise.all([resolveScope(db, query), getSettings(db)]);
+export async function getMaintenanceMix(db: Db, query: MaintenanceMixQuery, settings: Settings): Promise<BeforeFreshness<MaintenanceMixReport>> {
+  const scope = await resolveScope(db, query);
   const notes: string[] = [];
   // The service may read the clock; only shared/ may not. Without any data there is no other bound.
   const to = scope.to ?? new Date();

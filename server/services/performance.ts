@@ -25,7 +25,6 @@ import { listPreventiveWorkOrders } from '../db/queries/work-orders.ts';
 import { badRequest } from '../errors.ts';
 import { capped } from './downtime.ts';
 import { ancestry, resolveScope, subtree } from './scope.ts';
-import { getSettings } from './settings.ts';
 
 /** The quantities a stage needs for a normalized point, and the PerformancePoint field each fills. */
 const requiredQuantities = {
@@ -115,14 +114,13 @@ export function performanceSettingsOf(settings: Settings, query: PerformanceQuer
  * missing; no running hours in the window → baseline null and no points (noted); an asset that is neither a
  * train nor a stage and has no stage below it → 400.
  */
-export async function getPerformance(db: Db, query: PerformanceQuery): Promise<PerformanceAnswer> {
+export async function getPerformance(db: Db, query: PerformanceQuery, plant: Settings): Promise<PerformanceAnswer> {
   const scope = await resolveScope(db, query);
   const { site, assets, asset, inScope } = scope;
   const stages = inScope.filter((a) => a.kind === 'stage');
   if (asset && stages.length === 0 && asset.kind !== 'train') {
     throw badRequest('bad-request', `Performance is computed per stage: ${asset.code} is a ${asset.kind}; give a train or a stage.`);
   }
-  const plant = await getSettings(db);
   const settings = performanceSettingsOf(plant, query);
   const notes: string[] = [];
   const provenance: Provenance = { workOrders: [], tags: [], windows: [], elements: [] };

@@ -96,7 +96,7 @@ describe('benchmark floors answer the engine’s questions', () => {
     const sql = await floors();
     const { rows } = await t.db.$client.query<{ k: number; expected: number }>(sql.forecast!);
     const line = (await t.db.$client.query<{ shape: number; scale: number }>(sql['element-life']!)).rows[0]!;
-    const answer = await getForecast(t.db, forecastQuerySchema.parse({}));
+    const answer = await getForecast(t.db, forecastQuerySchema.parse({}), await getSettings(t.db));
     const asOf = new Date(answer.asOf);
     const elements = (answer.groups[0]!.elements ?? []).map((e) => ({ id: e.serial, ageDays: e.ageDays, replacementCost: 1 }));
     expect(elements.length).toBe(answer.inService); // every element listed (fewer than the list cap)

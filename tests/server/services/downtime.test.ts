@@ -8,6 +8,7 @@ import { getDowntime } from '#server/services/downtime.ts';
 import { updateSettings } from '#server/services/settings.ts';
 import { createTestDatabase, type TestDatabase } from '../../setup/db.ts';
 import { SITE, seedEmptySite, seedOpsPlant } from './ops-plant.ts';
+import { getSettings } from '#server/services/settings.ts';
 
 let t: TestDatabase;
 beforeAll(async () => {
@@ -17,8 +18,8 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-const run = (q: Record<string, unknown>) =>
-  getDowntime(t.db, downtimeQuerySchema.parse({ site: SITE, from: '2025-01-01T00:00:00Z', to: '2025-01-11T00:00:00Z', ...q }));
+const run = async (q: Record<string, unknown>) =>
+  getDowntime(t.db, downtimeQuerySchema.parse({ site: SITE, from: '2025-01-01T00:00:00Z', to: '2025-01-11T00:00:00Z', ...q }), await getSettings(t.db));
 
 describe('stop events of the whole site', () => {
   it('lists each stop with the keys of DESIGN §7, planned vs unplanned and its cause', async () => {
@@ -116,7 +117,7 @@ describe('windows and scope', () => {
   });
 
   it('answers a site without data with an empty window', async () => {
-    const report = beforeFreshnessSchema(downtimeReportSchema).parse(await getDowntime(t.db, downtimeQuerySchema.parse({ site: 'EMPTY' })));
+    const report = beforeFreshnessSchema(downtimeReportSchema).parse(await getDowntime(t.db, downtimeQuerySchema.parse({ site: 'EMPTY' }), await getSettings(t.db)));
     expect(report.from).toBe(report.to);
     expect(report.events).toEqual([]);
     expect(report.notes.join(' ')).toMatch(/no data to bound a window/);

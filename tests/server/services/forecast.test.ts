@@ -9,6 +9,7 @@ import { forecastQuerySchema, forecastReportSchema } from '#shared/schemas/kpi.t
 import { getForecast, type ForecastAnswer } from '#server/services/forecast.ts';
 import { createTestDatabase, type TestDatabase } from '../../setup/db.ts';
 import { importText } from '../importers/helpers.ts';
+import { getSettings } from '#server/services/settings.ts';
 
 let t: TestDatabase;
 const DAY_MS = 86_400_000;
@@ -43,7 +44,7 @@ async function site(code: string, elements: string[]) {
 }
 
 async function forecast(query: Record<string, unknown>): Promise<ForecastAnswer> {
-  const answer = await getForecast(t.db, forecastQuerySchema.parse(query));
+  const answer = await getForecast(t.db, forecastQuerySchema.parse(query), await getSettings(t.db));
   beforeFreshnessSchema(forecastReportSchema).parse(answer);
   return answer;
 }

@@ -8,6 +8,7 @@ import { getMaintenanceMix } from '#server/services/maintenance-mix.ts';
 import { updateSettings } from '#server/services/settings.ts';
 import { createTestDatabase, type TestDatabase } from '../../setup/db.ts';
 import { importText } from '../importers/helpers.ts';
+import { getSettings } from '#server/services/settings.ts';
 
 let t: TestDatabase;
 
@@ -60,7 +61,7 @@ beforeAll(async () => {
 afterAll(() => t.close());
 
 async function mix(query: Record<string, unknown>): Promise<BeforeFreshness<MaintenanceMixReport>> {
-  return beforeFreshnessSchema(maintenanceMixReportSchema).parse(await getMaintenanceMix(t.db, maintenanceMixQuerySchema.parse(query)));
+  return beforeFreshnessSchema(maintenanceMixReportSchema).parse(await getMaintenanceMix(t.db, maintenanceMixQuerySchema.parse(query), await getSettings(t.db)));
 }
 
 const day = { from: '2021-01-01T00:00:00Z', to: '2021-01-02T00:00:00Z' };

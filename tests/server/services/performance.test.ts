@@ -11,6 +11,7 @@ import { cleaningDescription, getPerformance } from '#server/services/performanc
 import { updateSettings } from '#server/services/settings.ts';
 import { createTestDatabase, type TestDatabase } from '../../setup/db.ts';
 import { SITE, seedEmptySite, seedOpsPlant, stageBase } from './ops-plant.ts';
+import { getSettings } from '#server/services/settings.ts';
 
 let t: TestDatabase;
 beforeAll(async () => {
@@ -20,8 +21,8 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-const run = (q: Record<string, unknown>) =>
-  getPerformance(t.db, performanceQuerySchema.parse({ site: SITE, from: '2025-01-01T00:00:00Z', to: '2025-01-11T00:00:00Z', ...q }));
+const run = async (q: Record<string, unknown>) =>
+  getPerformance(t.db, performanceQuerySchema.parse({ site: SITE, from: '2025-01-01T00:00:00Z', to: '2025-01-11T00:00:00Z', ...q }), await getSettings(t.db));
 
 /** Net driving pressure, bar, of an operating point (ASTM D4516 structure, log-mean average; common-practice constants). */
 function ndp(p: { pf: number; pc: number; pp: number; qf: number; qp: number; cf: number; cp: number }): number {
@@ -191,7 +192,7 @@ describe('edges', () => {
   });
 
   it('answers a site without data', async () => {
-    const report = beforeFreshnessSchema(performanceReportSchema).parse(await getPerformance(t.db, performanceQuerySchema.parse({ site: 'EMPTY' })));
+    const report = beforeFreshnessSchema(performanceReportSchema).parse(await getPerformance(t.db, performanceQuerySchema.parse({ site: 'EMPTY' }), await getSettings(t.db)));
     expect(report).toMatchObject({ from: null, to: null, stages: [] });
   });
 
