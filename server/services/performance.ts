@@ -12,6 +12,7 @@ import type { Quantity } from '#shared/schemas/enums.ts';
 import type { Provenance } from '#shared/schemas/kpi.ts';
 import { summaryNormalizedKeys, summaryStateKeys, type PerformanceQuery, type PerformanceReport } from '#shared/schemas/kpi-ops.ts';
 import type { Settings } from '#shared/schemas/settings.ts';
+import { countOf } from '#shared/text.ts';
 import type { Db } from '../db/client.ts';
 import type { AssetRecord } from '../db/queries/assets.ts';
 import { tagsAwaitingRefresh } from '../db/queries/dirty-hours.ts';
@@ -241,7 +242,7 @@ export async function getPerformance(db: Db, query: PerformanceQuery): Promise<P
   provenance.tags = [...new Set(provenance.tags)];
   const usedIds = [...tagsByAsset.values()].flat().filter((tag) => provenance.tags.includes(tag.name)).map((tag) => tag.id);
   const stale = await tagsAwaitingRefresh(db.$client, usedIds);
-  if (stale.length > 0) notes.push(`Imported data of ${stale.length} tag(s) used here awaits \`osmia refresh\`: the hourly means may be out of date.`);
+  if (stale.length > 0) notes.push(`Imported data of ${countOf(stale.length, 'tag', 'tags')} used here awaits \`osmia refresh\`: the hourly means may be out of date.`);
   provenance.workOrders = capped([...new Set(provenance.workOrders)], 'work orders', provenanceNotes);
   provenance.elements = capped([...new Set(provenance.elements)], 'element serials', provenanceNotes);
   return { ...header, stages: answers, notes: [...notes, ...provenanceNotes], provenance };
