@@ -1,6 +1,6 @@
 import type { Settings } from '#shared/schemas/settings.ts';
 import { Card } from '../../../components/ui/card.tsx';
-import { formatNumber } from '../../../lib/format.ts';
+import { formatNumber, formatSignificant } from '../../../lib/format.ts';
 import { useSettings } from '../api/get-settings.ts';
 import { settingGroups, unitOf, type SettingField } from '../utils/setting-fields.ts';
 
@@ -9,7 +9,7 @@ function displayValue(field: SettingField, settings: Settings): string {
   if (Array.isArray(value)) return value.length === 0 ? 'nobody yet' : value.join(', ');
   if (typeof value === 'number') {
     if (field.key === 'confidence') return `${formatNumber(value, 4)} (${formatNumber(value * 100, 2)} %)`;
-    return formatNumber(value, 12);
+    return formatSignificant(value, 4);
   }
   return value;
 }
