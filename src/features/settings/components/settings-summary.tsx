@@ -29,7 +29,13 @@ export function SettingsSummary() {
                   <dt className="text-sm font-bold text-basin-800">{field.label}</dt>
                   <dd className="mt-0.5 text-basin-900">
                     <span className="tabular-nums">{displayValue(field, settings)}</span>
-                    {unit && <span className="ml-1 text-sm text-basin-600">{unit}</span>}
+                    {/* A real space, so the value and its unit also read apart when copied or spoken. */}
+                    {unit && (
+                      <>
+                        {' '}
+                        <span className="text-sm text-basin-600">{unit}</span>
+                      </>
+                    )}
                   </dd>
                   {field.kind !== 'emails' && <dd className="mt-0.5 text-xs text-basin-600">{field.hint}</dd>}
                 </div>
