@@ -43,7 +43,8 @@ export function OpenWorkCard({ params, footer }: { params: OpenWorkOrdersParams;
   return (
     <Card title="Open work" description={`Work orders open on ${formatDate(report.asOf)}, overdue first.`}>
       <div className="space-y-4">
-        <div className="min-w-0">
+        {/* Columns follow the card's width (a container query), not the screen's: beside the navigation at 800 px it is narrow. */}
+        <div className="@container min-w-0">
           <dl className="grid grid-cols-3 gap-4">
             <Figure label="Open" value={formatNumber(report.total, 0)} detail={report.total === 1 ? 'work order' : 'work orders'} />
             <Figure
@@ -69,10 +70,10 @@ export function OpenWorkCard({ params, footer }: { params: OpenWorkOrdersParams;
                     <th scope="col" className="pb-1 font-normal">
                       Work order
                     </th>
-                    <th scope="col" className="hidden pb-1 font-normal sm:table-cell">
+                    <th scope="col" className="hidden pb-1 font-normal @xl:table-cell">
                       Asset
                     </th>
-                    <th scope="col" className="hidden pb-1 font-normal sm:table-cell">
+                    <th scope="col" className="hidden pb-1 font-normal @xl:table-cell">
                       Type
                     </th>
                     <th scope="col" className="pb-1 font-normal">
@@ -81,7 +82,7 @@ export function OpenWorkCard({ params, footer }: { params: OpenWorkOrdersParams;
                     <th scope="col" className="pb-1 text-right font-normal">
                       Open for
                     </th>
-                    <th scope="col" className="hidden pb-1 text-right font-normal sm:table-cell">
+                    <th scope="col" className="hidden pb-1 text-right font-normal @xl:table-cell">
                       Hours
                     </th>
                   </tr>
@@ -91,15 +92,15 @@ export function OpenWorkCard({ params, footer }: { params: OpenWorkOrdersParams;
                     <tr key={o.woNumber} className="border-t border-basin-100 align-top">
                       <th scope="row" className="py-1.5 pr-2 text-left font-normal">
                         <span className="font-mono text-xs font-bold whitespace-nowrap text-basin-900">{o.woNumber}</span>
-                        {/* On a phone the asset goes under the number, so the row fits without scrolling. */}
-                        <span className="block max-w-[11rem] truncate text-xs text-basin-600 sm:max-w-[18rem]" title={o.description}>
-                          <span className="font-mono sm:hidden">{o.asset}</span>
-                          {o.description && <span className="sm:hidden"> · </span>}
+                        {/* In a narrow card the asset goes under the number, so the row fits without scrolling. */}
+                        <span className="block max-w-[11rem] truncate text-xs text-basin-600 @xl:max-w-[18rem]" title={o.description}>
+                          <span className="font-mono @xl:hidden">{o.asset}</span>
+                          {o.description && <span className="@xl:hidden"> · </span>}
                           {o.description}
                         </span>
                       </th>
-                      <td className="hidden py-1.5 pr-2 font-mono text-xs whitespace-nowrap sm:table-cell">{o.asset}</td>
-                      <td className="hidden py-1.5 pr-2 text-basin-700 sm:table-cell">{o.type}</td>
+                      <td className="hidden py-1.5 pr-2 font-mono text-xs whitespace-nowrap @xl:table-cell">{o.asset}</td>
+                      <td className="hidden py-1.5 pr-2 text-basin-700 @xl:table-cell">{o.type}</td>
                       <td className="py-1.5 pr-2">
                         <Badge tone={priorityTone[o.priority]}>{o.priority}</Badge>
                       </td>
@@ -111,7 +112,7 @@ export function OpenWorkCard({ params, footer }: { params: OpenWorkOrdersParams;
                           </span>
                         )}
                       </td>
-                      <td className="hidden py-1.5 text-right whitespace-nowrap sm:table-cell">
+                      <td className="hidden py-1.5 text-right whitespace-nowrap @xl:table-cell">
                         {o.labourHours > 0 ? formatHours(o.labourHours, 1) : '—'}
                       </td>
                     </tr>
