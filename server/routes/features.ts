@@ -3,10 +3,12 @@ import { importRoutes } from './imports.ts';
 import { kpiRoutes } from './kpi.ts';
 import { siteRoutes } from './sites.ts';
 import type { RouteRegistry } from './registry.ts';
+import { workOrderRoutes } from './work-orders.ts';
 
 /** Routers of the product's features, registered in one list. */
 export function registerFeatureRoutes(r: RouteRegistry, deps: AppDeps): void {
   siteRoutes(r, deps);
   importRoutes(r, deps);
   kpiRoutes(r, deps);
+  workOrderRoutes(r, deps);
 }

@@ -3,6 +3,7 @@
 // refresh that failed, another process refreshing right now — is either rebuilt before the answer
 // (when that is quick) or named in the answer's `warnings`, with the command that fixes it.
 import type { Freshness } from '#shared/schemas/common.ts';
+import { countOf } from '#shared/text.ts';
 import type { Db } from '../db/client.ts';
 import { dataVersionAndSettings } from '../db/queries/data-version.ts';
 import { derivedLag, newestData } from '../db/queries/freshness.ts';
@@ -35,8 +36,6 @@ export async function catchUpDerived(db: Db, lagTagHours?: number): Promise<bool
   return true;
 }
 
-const plural = (n: number, one: string, many: string) => `${n.toLocaleString('en')} ${n === 1 ? one : many}`;
-
 /**
  * The freshness fields of an answer about `site` whose window ends at `to` (or whose figures are as of
  * it): newest sample and work-order time up to there, whether the derived tables of the site are
@@ -51,8 +50,8 @@ export async function freshnessOf(db: Db, site: string | undefined, to: string |
   const upToDate = lag === null || lag.tags === 0;
   if (!upToDate) {
     warnings.push(
-      `Samples imported for ${plural(lag.tags, 'tag', 'tags')} of ${site} are not yet in the hourly rollups and stop events ` +
-        `(${plural(Math.ceil(lag.tagHours), 'tag-hour', 'tag-hours')} to rebuild): stops, operating time, produced volume and ` +
+      `Samples imported for ${countOf(lag.tags, 'tag', 'tags')} of ${site} are not yet in the hourly rollups and stop events ` +
+        `(${countOf(Math.ceil(lag.tagHours), 'tag-hour', 'tag-hours')} to rebuild): stops, operating time, produced volume and ` +
         `performance may be missing or out of date. Run "bin/osmia refresh", then ask again.`,
     );
   }

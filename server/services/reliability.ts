@@ -16,6 +16,7 @@ import {
 } from '#shared/kpi/reliability.ts';
 import { nullBecause, type NullReason, type Ratio } from '#shared/kpi/stats.ts';
 import type { Provenance, ReliabilityQuery, ReliabilityReport } from '#shared/schemas/kpi.ts';
+import { agree, countOf } from '#shared/text.ts';
 import type { Db } from '../db/client.ts';
 import type { AssetRecord } from '../db/queries/assets.ts';
 import { listTags, type TagRow } from '../db/queries/tags.ts';
@@ -128,11 +129,15 @@ function figuresOf(asset: string | null, scope: string[], units: UnitTime[], fai
   }
   if (basis.completedLessReported > 0) {
     notes.push(
-      `${basis.completedLessReported} of ${r} failure(s) have no out-of-service window: their restoration time is completed − reported.`,
+      `${basis.completedLessReported} of ${countOf(r, 'failure', 'failures')} ${agree(basis.completedLessReported, 'has', 'have')} no out-of-service window: ` +
+        `${agree(basis.completedLessReported, 'its', 'their')} restoration time is completed − reported.`,
     );
   }
   if (basis.unknown > 0) {
-    notes.push(`${basis.unknown} of ${r} failure(s) have neither an out-of-service window nor a completion: MTTR leaves them out.`);
+    notes.push(
+      `${basis.unknown} of ${countOf(r, 'failure', 'failures')} ${agree(basis.unknown, 'has', 'have')} neither an out-of-service window nor a completion: ` +
+        `MTTR leaves ${agree(basis.unknown, 'it', 'them')} out.`,
+    );
   }
   const mttr: Ratio = r === 0 ? nullBecause('no-failures') : restoration.length === 0 ? nullBecause('no-repairs') : mttrHours(restoration);
   if (mttr.value === null) reasons.mttrHours = mttr.reason;

@@ -6,6 +6,7 @@
 // indicator numbers cited). The exact rules below are ours and are stated so any figure can be rebuilt.
 
 import type { WorkOrderStatus, WorkOrderType } from '#shared/schemas/enums.ts';
+import { agree, countOf } from '../text.ts';
 import { instantMs, windowMs, type TimeWindow } from './operating-time.ts';
 
 export interface MixWorkOrder {
@@ -169,7 +170,7 @@ export function maintenanceMix(input: MaintenanceMixInput): MaintenanceMixResult
   const totalHours = plannedHours + reactiveHours + improvementHours;
   const noHours = totalHours === 0;
   const zeroHourOrders = counted.filter((wo) => wo.labourHours === 0).length;
-  if (zeroHourOrders > 0) notes.push(`${zeroHourOrders} closed work order(s) in the window have no labour hours booked.`);
+  if (zeroHourOrders > 0) notes.push(`${countOf(zeroHourOrders, 'closed work order', 'closed work orders')} in the window ${agree(zeroHourOrders, 'has', 'have')} no labour hours booked.`);
   const labour: LabourMix = {
     plannedHours,
     reactiveHours,
@@ -217,7 +218,9 @@ export function maintenanceMix(input: MaintenanceMixInput): MaintenanceMixResult
   const backlogHours = open.reduce((acc, wo) => acc + wo.labourHours, 0);
   const capacity = input.crewCapacityHoursPerWeek;
   const withoutEstimate = open.filter((wo) => wo.labourHours === 0).length;
-  if (withoutEstimate > 0) notes.push(`${withoutEstimate} backlog work order(s) have no labour-hour estimate: backlog hours understate the work.`);
+  if (withoutEstimate > 0) notes.push(
+      `${countOf(withoutEstimate, 'backlog work order', 'backlog work orders')} ${agree(withoutEstimate, 'has', 'have')} no labour-hour estimate: backlog hours understate the work.`,
+    );
   const backlog: Backlog = {
     workOrders: open.length,
     hours: backlogHours,

@@ -16,6 +16,7 @@
 // (element changes and cleanings) used to pick the baseline.
 
 import { maintenanceCautions } from '../cautions.ts';
+import { agree, countOf } from '../text.ts';
 
 /** One operating point of a stage. Pressures in bar (gauge), flows in m³/h, conductivities in µS/cm, °C. */
 export interface PerformancePoint {
@@ -645,7 +646,10 @@ export function normalizePerformance(
   }
   const normalized = sortedStates.map((state) => ({ state, normalized: normalizeState(state, reference, settings) }));
   if (choice.index > 0) {
-    notes.push(`${choice.index} point(s) before the baseline (${choice.time}) are shown against it but raise no alerts.`);
+    // Date-free: the page shows the baseline day in the reader's time zone beside this note.
+    notes.push(
+      `${countOf(choice.index, 'day', 'days')} before the baseline ${agree(choice.index, 'is shown against it but raises no alert', 'are shown against it but raise no alerts')}.`,
+    );
   }
   return {
     baseline: { ...choice, state: reference, setBy: baselineSetBy(choice.resetAt, resets) },

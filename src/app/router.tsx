@@ -4,23 +4,27 @@ import { createBrowserRouter, RouterProvider } from 'react-router-dom';
 import { pageById } from '../config/navigation.ts';
 import { requireUser } from './guard.tsx';
 import { AppShell } from './layout/app-shell.tsx';
+import { LoadingShell } from './layout/loading-shell.tsx';
 import { RouteErrorRoute } from './routes/route-error.tsx';
 
 // Pages load on demand: each route module brings its loader (built around the app's query client,
 // prefetching the queryOptions its components read) and its component. Only pages whose entry in
-// config/navigation.ts is ready have a route here.
+// config/navigation.ts is ready have a route here. A full load renders the top-level route's
+// HydrateFallback (the loading shell) until the first loaders have run, never a blank page.
 const relative = (path: string) => path.replace(/^\//, '');
 
 export function createAppRouter(queryClient: QueryClient) {
   return createBrowserRouter([
     {
       path: '/sign-in',
+      HydrateFallback: LoadingShell,
       errorElement: <RouteErrorRoute />,
       lazy: () => import('./routes/sign-in.tsx').then((m) => ({ loader: m.createSignInLoader(queryClient), Component: m.SignInRoute })),
     },
     {
       path: '/',
       element: <AppShell />,
+      HydrateFallback: LoadingShell,
       errorElement: <RouteErrorRoute />,
       loader: async ({ request }) => {
         await requireUser(queryClient, request);

@@ -9,6 +9,16 @@ export function formatDateTime(iso: string | null | undefined): string {
   return Number.isNaN(date.getTime()) ? '—' : dateTime.format(date);
 }
 
+/**
+ * A constant to read, not to compute with: `digits` significant digits, and no decimals once the
+ * integer part has that many (0.000689475729 → "0.0006895", 3020 → "3,020", 0.85 → "0.85").
+ */
+export function formatSignificant(value: number | null | undefined, digits = 4): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return '—';
+  if (Math.abs(value) >= 10 ** digits) return formatNumber(value, 0);
+  return new Intl.NumberFormat(undefined, { maximumSignificantDigits: digits }).format(value);
+}
+
 /** A number with up to `maxDigits` decimals, grouped in the reader's locale. */
 export function formatNumber(value: number | null | undefined, maxDigits = 2): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return '—';

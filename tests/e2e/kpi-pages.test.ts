@@ -18,7 +18,10 @@ import { importHistorySchema } from '#shared/schemas/imports.ts';
 import { downtimeReportSchema, maintenanceMixReportSchema, performanceReportSchema } from '#shared/schemas/kpi-ops.ts';
 import { elementLifeReportSchema, forecastReportSchema, reliabilityReportSchema, timeToCompleteReportSchema } from '#shared/schemas/kpi.ts';
 import { settingsSchema } from '#shared/schemas/settings.ts';
+import { openWorkOrdersSchema } from '#shared/schemas/work-orders.ts';
 import { seedDemo } from '#server/demo/seed.ts';
+import { runImport } from '#server/importers/run.ts';
+import { fileWith } from '../server/importers/helpers.ts';
 import { buildClient, launchChromium, listen, tearDown } from './harness.ts';
 import { createTestApp, rolePasswords, type TestApp } from '../setup/app.ts';
 
@@ -33,6 +36,8 @@ let dist: string;
 let demoDir: string;
 /** The demo plant's time zone: the browser reads dates as someone at the plant would. */
 let timeZone: string;
+/** The demo site's code, for imports made by a test. */
+let siteCode: string;
 
 beforeAll(async () => {
   dist = await buildClient();
@@ -40,6 +45,7 @@ beforeAll(async () => {
   demoDir = mkdtempSync(join(tmpdir(), 'osmia-demo-e2e-'));
   const seeded = await seedDemo(t.db, { outDir: demoDir, years: 1, stepMinutes: 60 });
   timeZone = seeded.manifest.site.timeZone;
+  siteCode = seeded.manifest.site.code;
   ({ server, base } = await listen(t.app));
   browser = await launchChromium();
   mkdirSync(shotsDir, { recursive: true });
@@ -443,6 +449,272 @@ describe('the KPI pages with the demo plant', () => {
       expect(row, total.asset).toContain(euros(total.cost!));
     }
     await shot(s.page, 'downtime-window-manager');
+    await closeSession(s);
+  });
+});
+
+// What a new user met on the pages (issue 13, items 2–6): overlapping axis labels, a blank first paint,
+// the same answer fetched several times, raw timestamps and code marks in text, and role dashboards.
+
+/** Boxes of text a person should be able to read one by one, in page pixels. */
+interface Box {
+  text: string;
+  left: number;
+  right: number;
+  top: number;
+  bottom: number;
+}
+
+const overlaps = (a: Box, b: Box) => a.left < b.right && b.left < a.right && a.top < b.bottom && b.top < a.bottom;
+
+/** Labels of the time axes of every chart on the page ("Mar 26", "3 Mar", "2026"), chart by chart. */
+async function timeAxisLabels(page: Page): Promise<Box[][]> {
+  return page.locator('figure [role="img"] svg').evaluateAll((svgs) =>
+    svgs.map((svg) =>
+      [...svg.querySelectorAll('text')]
+        .filter((t) => /^(\d{1,2} \p{L}{3,4}\.?|\p{L}{3,4}\.? \d{2}|\d{4})$/u.test(t.textContent?.trim() ?? ''))
+        .map((t) => {
+          const r = t.getBoundingClientRect();
+          return { text: t.textContent!.trim(), left: r.left, right: r.right, top: r.top, bottom: r.bottom };
+        }),
+    ),
+  );
+}
+
+/** Text a person reads never shows a raw ISO instant, a lazy "(s)" plural or a literal backtick. */
+function readable(text: string, where: string) {
+  expect(text, `${where}: raw timestamp`).not.toMatch(/\d{4}-\d{2}-\d{2}T\d{2}:\d{2}/);
+  expect(text, `${where}: "(s)" plural`).not.toMatch(/\w\(s\)/);
+  expect(text, `${where}: literal backtick`).not.toContain('`');
+}
+
+describe('issue 13: what a new user meets on the pages', () => {
+  it.each([1280, 800])('membrane performance at %i px: every time axis has at least two labels and none overlaps another', async (width) => {
+    const report = await api('engineer', '/api/kpi/performance', performanceReportSchema);
+    const s = await openSession({ width, height: 900 });
+    await signIn(s, 'engineer', '/performance');
+    await heading(s.page, 'Membrane performance');
+    await chartsDrawn(s.page, report.stages.length * 3);
+    const charts = await timeAxisLabels(s.page);
+    expect(charts).toHaveLength(report.stages.length * 3);
+    for (const [i, labels] of charts.entries()) {
+      expect(labels.length, `chart ${i}: ${labels.map((l) => l.text).join(' | ')}`).toBeGreaterThanOrEqual(2);
+      for (let a = 0; a < labels.length; a++) {
+        for (let b = a + 1; b < labels.length; b++) {
+          expect(overlaps(labels[a], labels[b]), `chart ${i}: "${labels[a].text}" and "${labels[b].text}" overlap`).toBe(false);
+        }
+      }
+    }
+    // The notes under each stage read as sentences: no raw instant of the baseline, no "point(s)".
+    readable(await mainText(s.page), `performance at ${width} px`);
+    await shot(s.page, `issue13-performance-${width}`);
+    await closeSession(s);
+  });
+
+  it('a full load with a window in the address shows the loading shell at once, then the page, without the HydrateFallback warning', async () => {
+    const s = await openSession();
+    const warnings: string[] = [];
+    s.page.on('console', (msg) => warnings.push(msg.text()));
+    await signIn(s, 'engineer', '/');
+    await heading(s.page, 'Dashboard');
+    // Slow answers, as a cold server gives them for a window nobody asked for yet.
+    await s.page.route('**/api/kpi/**', async (route) => {
+      await new Promise((resolve) => setTimeout(resolve, 1500));
+      await route.continue();
+    });
+    await s.page.goto(`${base}/performance?from=2026-02-01&to=2026-06-01`, { waitUntil: 'domcontentloaded' });
+    const shell = s.page.getByRole('status', { name: 'Loading Osmia' });
+    expect(await shell.isVisible(), 'the loading shell right after DOMContentLoaded').toBe(true);
+    // Once React runs, the router renders the same shell (its HydrateFallback) while the loaders wait for the
+    // slowed answers; without one React would have replaced the markup of index.html with nothing.
+    await s.page.waitForLoadState('load');
+    await s.page.waitForTimeout(500);
+    expect(await shell.isVisible(), 'the loading shell while the loaders wait').toBe(true);
+    await shot(s.page, 'issue13-loading-shell');
+    await heading(s.page, 'Membrane performance');
+    expect(await shell.count()).toBe(0);
+    await s.page.unroute('**/api/kpi/**');
+    expect(warnings.filter((w) => /HydrateFallback/.test(w))).toEqual([]);
+    await closeSession(s);
+  });
+
+  it('dashboard and downtime ask for each KPI answer once per load, also when following the dashboard link', async () => {
+    const s = await openSession();
+    await signIn(s, 'manager', '/');
+    await heading(s.page, 'Dashboard');
+    const counts = new Map<string, number>();
+    s.page.on('request', (r) => {
+      const url = new URL(r.url());
+      if (/^\/api\/(kpi|work-orders)\//.test(url.pathname)) counts.set(url.pathname + url.search, (counts.get(url.pathname + url.search) ?? 0) + 1);
+    });
+    const load = async (path: string, title: string, then?: () => Promise<void>) => {
+      counts.clear();
+      await s.page.goto(`${base}${path}`);
+      await heading(s.page, title);
+      await then?.();
+      await s.page.waitForLoadState('networkidle');
+      const repeated = [...counts].filter(([, n]) => n > 1);
+      expect(repeated, `${path}: URLs asked for more than once`).toEqual([]);
+      expect(counts.size, `${path}: no KPI request seen`).toBeGreaterThan(0);
+      return new Map(counts);
+    };
+    const window = '?from=2026-01-01&to=2026-07-01';
+    const dashboard = await load(`/${window}`, 'Dashboard');
+    expect([...dashboard.keys()].filter((u) => u.startsWith('/api/kpi/downtime'))).toEqual(['/api/kpi/downtime?from=2026-01-01&to=2026-07-01']);
+    await load(`/downtime${window}`, 'Downtime');
+    await load('/downtime', 'Downtime');
+    await load('/', 'Dashboard');
+    // From the dashboard to the downtime page by its link: the dashboard's answer serves the page.
+    counts.clear();
+    await s.page.getByRole('link', { name: 'Downtime in detail →' }).click();
+    await heading(s.page, 'Downtime');
+    await s.page.waitForLoadState('networkidle');
+    expect([...counts].filter(([u]) => u.startsWith('/api/kpi/downtime'))).toEqual([]);
+    await closeSession(s);
+  });
+
+  it('reliability (manager): MTBF keeps its unit on its line, wide bounds are marked and explained, and notes read as sentences', async () => {
+    const report = await api('manager', '/api/kpi/reliability?groupBy=asset', reliabilityReportSchema);
+    const s = await openSession();
+    await signIn(s, 'manager', '/reliability');
+    await heading(s.page, 'Reliability');
+    const table = s.page.getByRole('table');
+    await expect.poll(() => table.getByRole('row').count()).toBe(report.groups!.length + 1);
+    // Each MTBF figure is drawn on one line: an inline element that wraps has more than one client rect.
+    const lines = await table.locator('tbody td strong').evaluateAll((els) => els.map((e) => [e.textContent, e.getClientRects().length] as const));
+    expect(lines.length).toBeGreaterThan(0);
+    expect(lines.filter(([, n]) => n !== 1)).toEqual([]);
+    const wide = report.groups!.filter((g) => g.mtbfLowerHours !== null && g.mtbfUpperHours !== null && (g.failures <= 2 || g.mtbfUpperHours / g.mtbfLowerHours > 10));
+    expect(wide.length, 'the demo plant has assets with one or two failures').toBeGreaterThan(0);
+    const one = wide[0];
+    const row = await table.getByRole('row').filter({ has: s.page.getByText(one.asset!, { exact: true }) }).innerText();
+    expect(row).toContain(one.failures === 1 ? 'wide: one failure' : `wide: ${one.failures} failures`);
+    const narrow = report.groups!.find((g) => g.failures > 2 && g.mtbfUpperHours !== null && g.mtbfUpperHours / g.mtbfLowerHours! <= 10)!;
+    const narrowRow = await table.getByRole('row').filter({ has: s.page.getByText(narrow.asset!, { exact: true }) }).innerText();
+    expect(narrowRow).not.toContain('wide');
+    await s.page.getByText(/^Wide: with two failures or fewer/).waitFor();
+    await s.page.getByText(/^Notes on the data/).click();
+    readable(await mainText(s.page), 'reliability');
+    await shot(s.page, 'issue13-reliability-manager');
+    await closeSession(s);
+  });
+
+  it('downtime: the Pareto’s 80 % label sits on its axis, clear of every bar and of the cumulative line', async () => {
+    const s = await openSession();
+    await signIn(s, 'finance', '/downtime');
+    await heading(s.page, 'Downtime');
+    await chartsDrawn(s.page, 2);
+    for (const name of ['Pareto by cause', 'Pareto by asset']) {
+      const svg = s.page.getByRole('region', { name }).locator('figure svg').first();
+      const found = await svg.evaluate((el) => {
+        const box = (e: Element) => {
+          const r = e.getBoundingClientRect();
+          return { left: r.left, right: r.right, top: r.top, bottom: r.bottom };
+        };
+        const label = [...el.querySelectorAll('text')].find((t) => t.textContent?.trim() === '80 %');
+        const bars = [...el.querySelectorAll('rect')].filter((r) => Number(r.getAttribute('width')) > 0 && Number(r.getAttribute('height')) > 0 && r.closest('g[transform]'));
+        return { label: label ? box(label) : null, marks: [...bars, ...el.querySelectorAll('circle')].map(box) };
+      });
+      expect(found.label, `${name}: an "80 %" label`).not.toBeNull();
+      const label = { text: '80 %', ...found.label! };
+      const hit = found.marks.filter((m) => overlaps(label, { text: '', ...m }));
+      expect(hit, `${name}: marks under the 80 % label`).toEqual([]);
+      // Right of every bar, so the line (drawn between bar centres) cannot reach it either.
+      const rightmost = Math.max(...found.marks.map((m) => m.right));
+      expect(label.left).toBeGreaterThanOrEqual(rightmost);
+    }
+    await closeSession(s);
+  });
+
+  it('settings (manager): constants read with a sensible precision and their units', async () => {
+    const settings = await api('manager', '/api/settings', settingsSchema);
+    expect(settings.osmoticBarPerMgL).toBeCloseTo(0.000689475729, 12);
+    const s = await openSession();
+    await signIn(s, 'manager', '/settings');
+    await heading(s.page, 'Settings');
+    const text = await mainText(s.page);
+    expect(text).not.toContain('0.000689475729');
+    expect(text).toMatch(/0\.0006895\s+bar per mg\/L/);
+    expect(text).toMatch(/3,020\s+K/);
+    await shot(s.page, 'issue13-settings-manager');
+    await closeSession(s);
+  });
+
+  const grids: [Role, boolean, boolean][] = [
+    ['admin', true, true],
+    ['engineer', true, true],
+    ['manager', true, false],
+    ['finance', false, false],
+  ];
+  it.each(grids)('dashboard (%s): open work %s, server health %s, and no hole in the grid at 1280, 800 and 390 px', async (role, openWork, health) => {
+    const s = await openSession();
+    await signIn(s, role, '/');
+    for (const width of [1280, 800, 390]) {
+      await s.page.setViewportSize({ width, height: 900 });
+      await s.page.goto(`${base}/`);
+      await heading(s.page, 'Dashboard');
+      await s.page.getByRole('region', { name: 'Downtime' }).waitFor();
+      await s.page.getByRole('region', { name: 'Element replacements, next 12 months' }).waitFor();
+      expect(await s.page.getByRole('region', { name: 'Open work' }).count()).toBe(openWork ? 1 : 0);
+      expect(await s.page.getByRole('region', { name: 'Server health' }).count()).toBe(health ? 1 : 0);
+      // The cells of the card grid tile it: each row holds two cards side by side or one as wide as the grid.
+      const grid = s.page.getByRole('region', { name: 'Downtime' }).locator('xpath=../..');
+      const layout = await grid.evaluate((el) => ({
+        width: el.getBoundingClientRect().width,
+        cells: [...el.children].map((c) => {
+          const r = c.getBoundingClientRect();
+          return { top: Math.round(r.top), width: r.width };
+        }),
+      }));
+      const rows = new Map<number, number[]>();
+      for (const c of layout.cells) rows.set(c.top, [...(rows.get(c.top) ?? []), c.width]);
+      for (const [top, widths] of rows) {
+        const full = widths.length === 1 && Math.abs(widths[0] - layout.width) < 1;
+        expect(full || widths.length === 2, `${role} at ${width} px: row at ${top} has ${widths.length} card(s) of ${widths.join(', ')} px in ${layout.width} px`).toBe(true);
+      }
+      const overflow = await s.page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
+      expect(overflow, `${role} at ${width} px: page wider than the screen`).toBe(0);
+      readable(await mainText(s.page), `dashboard ${role} ${width}`);
+      await shot(s.page, `issue13-dashboard-${role}-${width}`);
+    }
+    await closeSession(s);
+  });
+
+  it('open work (manager): the card lists the API’s open and overdue orders and the backlog hours, with the cautions', async () => {
+    const open = await api('manager', '/api/work-orders/open?limit=8', openWorkOrdersSchema);
+    expect(open.total).toBeGreaterThan(0);
+    const s = await openSession();
+    await signIn(s, 'manager', '/');
+    const card = s.page.getByRole('region', { name: 'Open work' });
+    await card.waitFor();
+    const text = await card.innerText();
+    expect(text).toContain(`Open\n${int(open.total)}`);
+    expect(text).toContain(`Overdue\n${int(open.overdue)}`);
+    expect(text).toContain(`${int(open.hours)} h`);
+    const rows = card.getByRole('table', { name: 'Open work orders, overdue first' }).getByRole('row');
+    await expect.poll(() => rows.count()).toBe(open.workOrders.length + 1);
+    expect(await rows.nth(1).innerText()).toContain(open.workOrders[0].woNumber);
+    expect(await card.getByText('overdue', { exact: true }).count()).toBe(open.workOrders.filter((o) => o.overdue).length);
+    expect(await card.getByRole('complementary', { name: 'Safety before any work on the plant' }).innerText()).toContain(isolateAndDepressurizeCaution);
+    await closeSession(s);
+  });
+
+  it('a note about data that awaits a refresh shows the command as code, not between backticks', async () => {
+    // Two run-status samples imported as cron would, before `osmia refresh` has rolled them up.
+    const csv = ['timestamp,tag,value,quality', '2026-06-15T10:30:00Z,T1.RUN,1,good', '2026-06-15T10:40:00Z,T1.RUN,1,good'].join('\n');
+    const record = await runImport(t.db, { kind: 'historian', path: fileWith(csv, 'late-run-status.csv'), site: siteCode, actor: 'test' });
+    expect(record.rowsInserted).toBe(2);
+    const report = await api('finance', '/api/kpi/downtime', downtimeReportSchema);
+    const note = report.notes.find((n) => n.includes('osmia refresh'));
+    expect(note, 'the downtime answer names the pending refresh').toBeDefined();
+    const s = await openSession();
+    await signIn(s, 'finance', '/downtime');
+    await heading(s.page, 'Downtime');
+    await s.page.getByText(/^Notes on the data/).click();
+    const code = s.page.getByRole('main').locator('details li code', { hasText: 'osmia refresh' });
+    await code.first().waitFor();
+    readable(await mainText(s.page), 'downtime notes');
+    await shot(s.page, 'issue13-downtime-notes');
     await closeSession(s);
   });
 });

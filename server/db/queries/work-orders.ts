@@ -96,6 +96,11 @@ export function listWorkOrdersOpenDuring(q: Queryable, siteId: number, assetIds:
   return listOnAssets(q, siteId, assetIds, 'reported_at < $4 and (completed_at is null or completed_at >= $3)', [from, to]);
 }
 
+/** Work orders on the given assets open at `at`: not cancelled, reported before it, not completed before it. */
+export function listWorkOrdersOpenAt(q: Queryable, siteId: number, assetIds: readonly number[], at: Date): Promise<WorkOrderRow[]> {
+  return listOnAssets(q, siteId, assetIds, "status <> 'cancelled' and reported_at < $3 and (completed_at is null or completed_at >= $3)", [at]);
+}
+
 /**
  * Work orders on the given assets that a reliability or downtime window [from, to) reads: reported in it
  * (failures are placed by reported_at) or out of service during it (downtime, calendar operating time).

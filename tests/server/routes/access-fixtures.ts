@@ -60,5 +60,6 @@ export async function accessFixtures(t: TestApp): Promise<Record<string, Fixture
     'GET /api/kpi/reliability': { method: 'get', url: '/api/kpi/reliability?site=ACC&groupBy=asset' },
     'GET /api/kpi/downtime': { method: 'get', url: '/api/kpi/downtime?site=ACC' },
     'GET /api/kpi/performance': { method: 'get', url: '/api/kpi/performance?site=ACC' },
+    'GET /api/work-orders/open': { method: 'get', url: '/api/work-orders/open?site=ACC' },
   };
 }

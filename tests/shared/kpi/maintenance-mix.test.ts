@@ -138,8 +138,8 @@ describe('degenerate input: null with a reason, never NaN', () => {
     expect(mix.labour.reason).toBe('The closed work orders in the window have no labour hours booked.');
     expect(mix.backlog.withoutEstimate).toBe(1);
     expect(mix.notes).toEqual([
-      '1 closed work order(s) in the window have no labour hours booked.',
-      '1 backlog work order(s) have no labour-hour estimate: backlog hours understate the work.',
+      '1 closed work order in the window has no labour hours booked.',
+      '1 backlog work order has no labour-hour estimate: backlog hours understate the work.',
     ]);
   });
 

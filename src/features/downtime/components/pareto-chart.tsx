@@ -13,6 +13,9 @@ export interface ParetoBar {
   events: number;
 }
 
+/** Ticks of the cumulative-share axis: 80 % is one of them, so the 80 % line is labelled on the axis, clear of bars and line. */
+const shareTicks = [0, 0.25, 0.5, 0.8, 1] as const;
+
 /** The cumulative share as a line over the bars, on its own 0–100 % axis at the right, with the 80 % line. */
 function CumulativeLine({ bars, innerWidth, innerHeight }: BarCustomLayerProps<ParetoBar>) {
   const centres = new Map<string, { x: number; cumulative: number }>();
@@ -25,19 +28,16 @@ function CumulativeLine({ bars, innerWidth, innerHeight }: BarCustomLayerProps<P
   return (
     <g>
       <line x1={0} x2={innerWidth} y1={y(0.8)} y2={y(0.8)} stroke={chartColors.muted} strokeDasharray="4 4" />
-      <text x={innerWidth - 4} y={y(0.8) - 4} textAnchor="end" fontSize={11} fill={chartColors.muted}>
-        80 %
-      </text>
       <path d={points.map((p, i) => `${i === 0 ? 'M' : 'L'}${p.x},${y(p.cumulative)}`).join('')} fill="none" stroke={chartColors.caution} strokeWidth={2} />
       {points.map((p) => (
         <circle key={p.x} cx={p.x} cy={y(p.cumulative)} r={3.5} fill="#ffffff" stroke={chartColors.caution} strokeWidth={2} />
       ))}
       <g transform={`translate(${innerWidth},0)`}>
         <line y1={0} y2={innerHeight} stroke="#b0c2c9" />
-        {[0, 0.25, 0.5, 0.75, 1].map((t) => (
+        {shareTicks.map((t) => (
           <g key={t} transform={`translate(0,${y(t)})`}>
             <line x2={5} stroke="#b0c2c9" />
-            <text x={8} dy="0.32em" fontSize={11} fill="#4d6873">
+            <text x={8} dy="0.32em" fontSize={11} fill={t === 0.8 ? chartColors.ink : '#4d6873'} fontWeight={t === 0.8 ? 700 : undefined}>
               {formatShare(t, 0)}
             </text>
           </g>

@@ -4,6 +4,7 @@ import { ChartFrame } from '../../../components/charts/chart-frame.tsx';
 import { seriesColors } from '../../../components/charts/chart-theme.ts';
 import { Badge } from '../../../components/ui/badge.tsx';
 import { Card } from '../../../components/ui/card.tsx';
+import { NoteText } from '../../../components/ui/note-text.tsx';
 import { formatChangePct, formatDate, formatDateTime, formatNumber } from '../../../lib/format.ts';
 import type { ChangePoint } from './performance-chart.tsx';
 
@@ -102,7 +103,9 @@ export function StageCard({ stage }: { stage: Stage }) {
       {stage.notes.length > 0 && (
         <ul className="mt-2 list-disc space-y-0.5 pl-5 text-xs text-basin-600">
           {stage.notes.map((n) => (
-            <li key={n}>{n}</li>
+            <li key={n}>
+              <NoteText text={n} />
+            </li>
           ))}
         </ul>
       )}

@@ -7,7 +7,7 @@ import { Select } from '../../../components/ui/select.tsx';
 import { formatDate, formatShare } from '../../../lib/format.ts';
 import { useKpiWindow } from '../../../lib/kpi-window.ts';
 import { useReliability, type ReliabilityGroupBy, type ReliabilityParams } from '../api/get-reliability.ts';
-import { groupLabel } from '../utils/labels.ts';
+import { groupLabel, wideIntervalExplanation, wideMtbfInterval } from '../utils/labels.ts';
 import type { MtbfBar } from './mtbf-chart.tsx';
 import { ReliabilitySummary } from './reliability-summary.tsx';
 import { ReliabilityTable } from './reliability-table.tsx';
@@ -79,7 +79,12 @@ export function ReliabilityPanel({ params }: { params: ReliabilityParams }) {
         )}
       </Card>
 
-      {params.groupBy !== 'all' && <ReliabilityTable groups={groups} confidence={report.confidence} groupBy={params.groupBy} />}
+      {params.groupBy !== 'all' && (
+        <div className="space-y-2">
+          <ReliabilityTable groups={groups} confidence={report.confidence} groupBy={params.groupBy} />
+          {groups.some(wideMtbfInterval) && <p className="text-xs text-basin-600">{wideIntervalExplanation}</p>}
+        </div>
+      )}
 
       <NotesDetails notes={report.notes} />
       <ProvenanceDetails provenance={report.provenance} />

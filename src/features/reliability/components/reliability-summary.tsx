@@ -1,6 +1,6 @@
 import { formatHours, formatNumber, formatShare } from '../../../lib/format.ts';
 import { nullReasonText } from '../../../lib/null-reason.ts';
-import { operatingTimeSourceLabels, type ReliabilityFigures } from '../utils/labels.ts';
+import { operatingTimeSourceLabels, wideMtbfInterval, type ReliabilityFigures } from '../utils/labels.ts';
 
 function Figure({ label, value, detail, reason }: { label: string; value: string; detail?: string; reason?: string }) {
   return (
@@ -28,7 +28,18 @@ export function ReliabilitySummary({ figures, confidence }: { figures: Reliabili
         detail={figures.operatingTimeSource ? `from ${operatingTimeSourceLabels[figures.operatingTimeSource]}` : undefined}
       />
       <Figure label="Failures" value={formatNumber(figures.failures, 0)} />
-      <Figure label="MTBF" value={formatHours(figures.mtbfHours, 0)} detail={bounds} reason={figures.mtbfHours === null ? nullReasonText(reasons.mtbfHours) : undefined} />
+      <Figure
+        label="MTBF"
+        value={formatHours(figures.mtbfHours, 0)}
+        detail={bounds}
+        reason={
+          figures.mtbfHours === null
+            ? nullReasonText(reasons.mtbfHours)
+            : wideMtbfInterval(figures)
+              ? 'A wide interval: so few failures say little about the MTBF.'
+              : undefined
+        }
+      />
       <Figure
         label="MTTR (restoration)"
         value={formatHours(figures.mttrHours, 1)}

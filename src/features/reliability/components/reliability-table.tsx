@@ -2,7 +2,7 @@ import type { ReliabilityReport } from '#shared/schemas/kpi.ts';
 import { Table, type Column } from '../../../components/ui/table.tsx';
 import { formatHours, formatNumber, formatShare } from '../../../lib/format.ts';
 import { nullReasonText } from '../../../lib/null-reason.ts';
-import { groupLabel, operatingTimeSourceLabels } from '../utils/labels.ts';
+import { groupLabel, operatingTimeSourceLabels, wideMtbfInterval } from '../utils/labels.ts';
 
 type Group = NonNullable<ReliabilityReport['groups']>[number];
 
@@ -24,11 +24,21 @@ export function ReliabilityTable({ groups, confidence, groupBy }: { groups: read
       cell: (g) => <span className="font-mono text-xs font-bold whitespace-nowrap text-basin-900">{groupLabel(g)}</span>,
     },
     { id: 'failures', header: 'Failures', align: 'right', sortValue: (g) => g.failures, cell: (g) => formatNumber(g.failures, 0) },
-    { id: 'operating', header: 'Operating time', wrapHeader: true, align: 'right', sortValue: (g) => g.operatingHours, cell: (g) => formatHours(g.operatingHours, 0) },
+    {
+      id: 'operating',
+      header: 'Operating time',
+      wrapHeader: true,
+      align: 'right',
+      // A figure and its unit stay on one line.
+      className: 'whitespace-nowrap',
+      sortValue: (g) => g.operatingHours,
+      cell: (g) => formatHours(g.operatingHours, 0),
+    },
     {
       id: 'mtbf',
       header: 'MTBF',
       align: 'right',
+      className: 'whitespace-nowrap',
       sortValue: (g) => g.mtbfHours,
       cell: (g) => (g.mtbfHours === null ? <Missing reason={nullReasonText(g.reasons?.mtbfHours)} /> : <strong>{formatHours(g.mtbfHours, 0)}</strong>),
     },
@@ -42,15 +52,23 @@ export function ReliabilityTable({ groups, confidence, groupBy }: { groups: read
         g.mtbfLowerHours === null ? (
           <Missing reason={nullReasonText(g.reasons?.mtbfLowerHours)} />
         ) : (
-          <span className="whitespace-nowrap text-basin-700">
-            {formatNumber(g.mtbfLowerHours, 0)} – {g.mtbfUpperHours === null ? '∞' : formatNumber(g.mtbfUpperHours, 0)} h
-          </span>
+          <>
+            <span className="whitespace-nowrap text-basin-700">
+              {formatNumber(g.mtbfLowerHours, 0)} – {g.mtbfUpperHours === null ? '∞' : formatNumber(g.mtbfUpperHours, 0)} h
+            </span>
+            {wideMtbfInterval(g) && (
+              <span className="block text-xs whitespace-nowrap text-sand-800">
+                wide: {g.failures === 1 ? 'one failure' : `${formatNumber(g.failures, 0)} failures`}
+              </span>
+            )}
+          </>
         ),
     },
     {
       id: 'mttr',
       header: 'MTTR',
       align: 'right',
+      className: 'whitespace-nowrap',
       sortValue: (g) => g.mttrHours,
       cell: (g) => (g.mttrHours === null ? <Missing reason={nullReasonText(g.reasons?.mttrHours)} /> : formatHours(g.mttrHours, 1)),
     },

@@ -1,6 +1,6 @@
 import type { Settings } from '#shared/schemas/settings.ts';
 import { Card } from '../../../components/ui/card.tsx';
-import { formatNumber } from '../../../lib/format.ts';
+import { formatNumber, formatSignificant } from '../../../lib/format.ts';
 import { useSettings } from '../api/get-settings.ts';
 import { settingGroups, unitOf, type SettingField } from '../utils/setting-fields.ts';
 
@@ -9,7 +9,7 @@ function displayValue(field: SettingField, settings: Settings): string {
   if (Array.isArray(value)) return value.length === 0 ? 'nobody yet' : value.join(', ');
   if (typeof value === 'number') {
     if (field.key === 'confidence') return `${formatNumber(value, 4)} (${formatNumber(value * 100, 2)} %)`;
-    return formatNumber(value, 12);
+    return formatSignificant(value, 4);
   }
   return value;
 }
@@ -29,7 +29,13 @@ export function SettingsSummary() {
                   <dt className="text-sm font-bold text-basin-800">{field.label}</dt>
                   <dd className="mt-0.5 text-basin-900">
                     <span className="tabular-nums">{displayValue(field, settings)}</span>
-                    {unit && <span className="ml-1 text-sm text-basin-600">{unit}</span>}
+                    {/* A real space, so the value and its unit also read apart when copied or spoken. */}
+                    {unit && (
+                      <>
+                        {' '}
+                        <span className="text-sm text-basin-600">{unit}</span>
+                      </>
+                    )}
                   </dd>
                   {field.kind !== 'emails' && <dd className="mt-0.5 text-xs text-basin-600">{field.hint}</dd>}
                 </div>
