@@ -1,4 +1,4 @@
-// Safety cautions shown beside every procedure, cleaning or replacement recommendation (DESIGN §9).
+// Safety cautions shown beside every procedure, cleaning or replacement recommendation (docs/design.md §9).
 // One list, reused by every recommendation in the app, so the wording cannot drift between the
 // dashboard, the workbooks, the digest and the CLI. Our own wording; the last line always defers
 // to the plant's own rules, because Osmia cannot know a plant's equipment or its hazards.

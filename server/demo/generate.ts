@@ -11,7 +11,7 @@ import { importColumns } from '#shared/schemas/imports.ts';
 import { type DemoPlant, demoPlant, plantAssets, plantTags, stageCode } from './plant.ts';
 import { DAY, MINUTE, isoOrEmpty, isoUtc } from './times.ts';
 
-// The canonical headers are the importers' own (DESIGN §5), so generated files cannot drift from them.
+// The canonical headers are the importers' own (docs/design.md §5), so generated files cannot drift from them.
 export const assetsHeader = importColumns.assets;
 export const tagsHeader = importColumns.tags;
 export const workOrdersHeader = importColumns['work-orders'];

@@ -41,11 +41,11 @@ export interface HistorianInput {
   outDir: string;
 }
 
-/** Osmotic pressure per µS/cm: TDS = 0.67 × conductivity, 0.0689 bar per 100 mg/L (DESIGN §6 defaults). */
+/** Osmotic pressure per µS/cm: TDS = 0.67 × conductivity, 0.0689 bar per 100 mg/L (docs/design.md §6 defaults). */
 export const osmoticBarPerUsCm = (0.0689 / 100) * 0.67;
 
 /**
- * Temperature correction factor of DESIGN §6 (common practice): exp(U(1/(273+T) − 1/298)),
+ * Temperature correction factor of docs/design.md §6 (common practice): exp(U(1/(273+T) − 1/298)),
  * U = 3020 K below 25 °C, 2640 K at or above. A 25 °C flow is the flow at T times TCF(T).
  */
 export function temperatureCorrection(celsius: number): number {

@@ -14,7 +14,7 @@ export type Quantity =
   | 'permeate_conductivity'
   | 'feed_temperature';
 
-/** Unit spellings of DESIGN §5; '' is the unit of run_status. */
+/** Unit spellings of docs/design.md §5; '' is the unit of run_status. */
 export type Unit = 'bar' | 'psi' | 'kPa' | 'm3/h' | 'gpm' | 'L/s' | 'uS/cm' | 'mS/cm' | 'degC' | 'degF' | '';
 
 export type AssetKind = 'train' | 'stage' | 'vessel' | 'pump' | 'filter' | 'instrument' | 'other';

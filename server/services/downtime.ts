@@ -1,4 +1,4 @@
-// Downtime KPI (DESIGN §6, §7): stop events of every asset in scope that has a run-status tag, planned or
+// Downtime KPI (docs/design.md §6, §7): stop events of every asset in scope that has a run-status tag, planned or
 // not, their cause, lost volume and cost, with totals and Pareto tables. Also home of the run-status
 // history that reliability reads too: stop events from `downtime_events` turned into the edge samples the
 // shared calculations take, so no request reads the raw samples table.
@@ -40,7 +40,7 @@ export interface RunStatusHistory {
  * (runStateSpans, stopSpans, operatingTimeFromRunStatus).
  *
  * `osmia refresh` has already turned the good samples into stop events [from, to) (to null: still stopped at
- * the end of the data), with DESIGN §6's rule that a state holds until the next good sample. Inside the
+ * the end of the data), with docs/design.md §6's rule that a state holds until the next good sample. Inside the
  * window, every stop start becomes a 0 sample and every stop end a 1 sample; where the data starts inside
  * the window, a 1 sample marks its first instant (a stop starting at the same instant overrides it, since
  * the last sample given for an instant wins). Where the data started before the window, `priorSample`
@@ -145,7 +145,7 @@ export type DowntimeAnswer = Omit<BeforeFreshness<DowntimeReport>, 'totals' | 'p
  * out-of-service window overlaps it most ('unknown' with none). Lost volume = stop hours × rated permeate
  * flow, m³/h, of the asset or, without one, of its nearest ancestor with a rating (`ratedPermeateFrom` says
  * which); cost = lost volume × the water value setting (currency per m³). Cancelled orders are left out.
- * Source: DESIGN §6 (downtime), §7 (keys); calculation in shared/kpi/downtime.ts.
+ * Source: docs/design.md §6 (downtime), §7 (keys); calculation in shared/kpi/downtime.ts.
  *
  * Degenerate input: no asset with a run-status tag in scope → no events, no totals, a note; a site with no
  * data at all → an empty window [t, t) at the time of asking, with a note.

@@ -88,7 +88,7 @@ export function vesselPlaces(scope: Pick<KpiScope, 'assets' | 'inScope'>): Map<n
 }
 
 /**
- * Group key of an element (DESIGN §6): `all`, `train=T1`, `stage=T1-S1`, `position=1`, `model=…`.
+ * Group key of an element (docs/design.md §6): `all`, `train=T1`, `stage=T1-S1`, `position=1`, `model=…`.
  * A vessel with no stage or train above it falls in `stage=(none)` / `train=(none)`.
  */
 export function elementGroupKey(groupBy: ElementGroupBy, install: ElementInstall, place: VesselPlace): string {
@@ -290,7 +290,7 @@ export function elementLifeGroup(key: string, lives: readonly ElementLifeObserva
 }
 
 /**
- * Element life by group (DESIGN §6). For each element install in the vessels of the scope:
+ * Element life by group (docs/design.md §6). For each element install in the vessels of the scope:
  * life = removal − installation in days (real elapsed time), a life-ending event when the removal
  * reason is failed, performance or damaged, else censored; the window rule is `observeLives`'s
  * (every life overlapping [from, to); one begun before `from` enters at its age then, one still

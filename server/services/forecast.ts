@@ -40,7 +40,7 @@ export type ForecastMonthOut = ForecastGroup['months'][number] & { partial: bool
 /** A group of the answer; `fitSource` says whether the group's own fit or the pooled one was used. */
 export type ForecastGroupOut = Omit<ForecastGroup, 'months'> & { months: ForecastMonthOut[]; fitSource: 'group' | 'pooled' };
 
-/** The forecast answer plus what the dashboard shows beside it (DESIGN §9) and the shaping notes. */
+/** The forecast answer plus what the dashboard shows beside it (docs/design.md §9) and the shaping notes. */
 export type ForecastAnswer = Omit<BeforeFreshness<ForecastReport>, 'groups'> & {
   groups: ForecastGroupOut[];
   /** Elements in service at `asOf` in the scope, forecast or not. */
@@ -96,7 +96,7 @@ function fitOf(lives: readonly ElementLifeObservation[], confidence: number): Fi
 }
 
 /**
- * Replacement forecast (DESIGN §6). asOf = the window end `to` (default: the end of the data; now
+ * Replacement forecast (docs/design.md §6). asOf = the window end `to` (default: the end of the data; now
  * when the site has no data); the horizon starts there. For each element in service at asOf
  * (installed before it and not removed before it, whenever it was installed) with age a days at
  * asOf and the Weibull (β, η) of its group (fitted by maximum likelihood to the lives `element-life`

@@ -99,7 +99,7 @@ async function producedVolume(db: Db, scope: KpiScope, from: Date, to: Date): Pr
 }
 
 /**
- * Maintenance mix over [from, to) (DESIGN §6; EN 15341 indicator families, from memory): planned
+ * Maintenance mix over [from, to) (docs/design.md §6; EN 15341 indicator families, from memory): planned
  * (preventive, predictive, inspection) vs reactive (corrective) share of the labour hours of closed
  * work orders completed in the window, PM compliance (`pmComplianceDefinition`), backlog at the
  * window end in hours and in weeks of crew capacity (settings.crewHoursPerWeek), and maintenance

@@ -1,4 +1,4 @@
-// Performance KPI (DESIGN §6, ASTM D4516): normalized permeate flow, salt passage and differential
+// Performance KPI (docs/design.md §6, ASTM D4516): normalized permeate flow, salt passage and differential
 // pressure of each stage, as % change from a baseline, with cleaning alerts and their cautions.
 import type { BeforeFreshness } from '#shared/schemas/common.ts';
 import { TZDate } from '@date-fns/tz';
@@ -41,7 +41,7 @@ type RequiredQuantity = keyof typeof requiredQuantities;
 const required = Object.keys(requiredQuantities) as RequiredQuantity[];
 
 /**
- * A cleaning, for the baseline (DESIGN §6: "the first day after the last element change or cleaning"): a
+ * A cleaning, for the baseline (docs/design.md §6: "the first running day after the last cleaning or change-out"): a
  * preventive work order, not cancelled, on the stage or its train, whose description says clean-in-place,
  * CIP or cleaning — /clean[- ]in[- ]place|\bCIP\b|cleaning/i. It resets the baseline at the end of its
  * out-of-service window, else at its completion; one with neither has not happened yet and is left out.

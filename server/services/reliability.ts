@@ -1,4 +1,4 @@
-// Reliability KPI (DESIGN §6, §7): MTBF with chi-square bounds, MTTR, mean active repair time and
+// Reliability KPI (docs/design.md §6, §7): MTBF with chi-square bounds, MTTR, mean active repair time and
 // availability of an asset and everything below it (or of the whole site), optionally per asset or kind.
 import type { BeforeFreshness } from '#shared/schemas/common.ts';
 import {
@@ -42,7 +42,7 @@ interface UnitTime {
   notes: string[];
 }
 
-/** How each failure's restoration time was found (DESIGN §6 MTTR; fallback when no out-of-service window). */
+/** How each failure's restoration time was found (docs/design.md §6 MTTR; fallback when no out-of-service window). */
 interface MttrBasis {
   outOfServiceWindow: number;
   completedLessReported: number;
@@ -68,7 +68,7 @@ export type ReliabilityAnswer = Omit<BeforeFreshness<ReliabilityReport>, 'groups
     provenance: Provenance;
   };
 
-/** A failure (DESIGN §6): a corrective work order with a failure code, not cancelled. */
+/** A failure (docs/design.md §6): a corrective work order with a failure code, not cancelled. */
 function isFailure(wo: WorkOrder): boolean {
   return wo.type === 'corrective' && wo.status !== 'cancelled' && (wo.failureCode ?? '').trim() !== '';
 }
@@ -185,7 +185,7 @@ function round(x: number): number {
  * Reliability over [from, to) of the asset asked about and everything below it, or of the whole site.
  *
  * - Failures r: corrective work orders with a failure code, not cancelled, reported in the window, on an
- *   asset in scope (DESIGN §6).
+ *   asset in scope (docs/design.md §6).
  * - Operating time T, hours: running time from the asset's run-status tag, else its nearest ancestor's
  *   ('run-status' / 'ancestor-run-status'), rebuilt from the stop events and data spans of the derived tables
  *   (see loadRunStatusHistories), counted only where the tag has data; with no such tag, the window less

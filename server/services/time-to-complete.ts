@@ -46,7 +46,7 @@ type TimeToCompleteGroup = TimeToCompleteReport['groups'][number];
 /** The answer plus the cautions of vessel work and the procedure rule, both shown beside it. */
 export type TimeToCompleteAnswer = BeforeFreshness<TimeToCompleteReport> & {
   procedureDefinition: string;
-  /** Safety cautions for the vessel work most of these jobs are (shared/cautions.ts, DESIGN §9). */
+  /** Safety cautions for the vessel work most of these jobs are (shared/cautions.ts, docs/design.md §9). */
   cautions: readonly string[];
 };
 
@@ -64,7 +64,7 @@ function bucketOut(b: LearningBucket) {
 }
 
 /**
- * Time to complete (DESIGN §6). Jobs are the work orders on the assets in scope whose first step
+ * Time to complete (docs/design.md §6). Jobs are the work orders on the assets in scope whose first step
  * started in [from, to); a job lasts from its first step's start to its last step's end, in hours of
  * real elapsed time, and is guided when any step was done with the written procedure open. Groups:
  * all, guided=yes, guided=no, crew=… (work_orders.crew), procedure=… (`procedureDefinition`), each
@@ -72,7 +72,7 @@ function bucketOut(b: LearningBucket) {
  * min and max; `groupBy` keeps `all` and only that kind of group. Learning curve: per calendar
  * quarter of job start in the site's zone, and per run of 10 jobs in start order.
  * Degenerate input: no jobs → all/guided=yes/guided=no with n = 0 and null figures ('no-jobs').
- * The answer carries the vessel-work cautions (DESIGN §9): these jobs open pressure vessels.
+ * The answer carries the vessel-work cautions (docs/design.md §9): these jobs open pressure vessels.
  */
 export async function getTimeToComplete(db: Db, query: TimeToCompleteQuery): Promise<TimeToCompleteAnswer> {
   // The jobs are searched within the query's bounds only (no default extent): the site's data extent

@@ -1,4 +1,4 @@
-// Downtime events, their classification and cause, lost production and Pareto tables (DESIGN §6, §7).
+// Downtime events, their classification and cause, lost production and Pareto tables (docs/design.md §6, §7).
 //
 // A stop event runs from a running→stopped edge of an asset's run-status tag to the next
 // stopped→running edge. Planned when it overlaps the out-of-service window of a preventive or
@@ -179,7 +179,7 @@ export function stopSpans(
 }
 
 /**
- * The codes of an asset and every asset below it in the tree. Source: DESIGN §6 (an asset's failures include
+ * The codes of an asset and every asset below it in the tree. Source: docs/design.md §6 (an asset's failures include
  * those of the assets below it). An asset missing from the tree is its own, only, scope. A cycle is an error.
  */
 export function assetScope(tree: readonly AssetNode[], code: string): Set<string> {
@@ -226,7 +226,7 @@ function checkWorkOrders(workOrders: readonly DowntimeWorkOrder[]): CheckedWorkO
  * out-of-service window sharing positive time with the stop. Cause: among non-cancelled corrective work
  * orders in `scope`, the one whose out-of-service window shares the most time with the stop (ties: earlier
  * window start, then lower work-order number); its failure code, or 'unknown' when it has none or no
- * corrective work order overlaps. Source: DESIGN §6 (downtime). Cancelled work orders are left out: their
+ * corrective work order overlaps. Source: docs/design.md §6 (downtime). Cancelled work orders are left out: their
  * windows are plans that did not happen.
  */
 export function classifyStop(
@@ -362,7 +362,7 @@ function sumOrNull(values: readonly (number | null)[]): number | null {
  * planned/unplanned and given a cause; lost volume = stop hours × rated permeate flow (m³/h → m³);
  * cost = lost volume × water value per m³; totals per asset; Pareto by cause and by asset.
  *
- * Source: DESIGN §6 (downtime) and §7 (`kpi downtime --json` keys). Stops are real elapsed time (UTC).
+ * Source: docs/design.md §6 (downtime) and §7 (`kpi downtime --json` keys). Stops are real elapsed time (UTC).
  * Degenerate input: no assets → no events, no totals; an asset without samples → a zero totals row and a
  * note; no rated flow → lost volume and cost null (noted); no water value → cost null (noted). An asset whose
  * `dataUntil` falls inside the window has its stops cut there (noted): the state after its last sample is unknown.

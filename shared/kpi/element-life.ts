@@ -767,7 +767,7 @@ export function weibullReliability(params: WeibullParams, t: number): number {
 
 /**
  * Probability that a unit that has survived to age a has a life-ending event within the next h:
- * 1 − R(a + h)/R(a) = 1 − exp((a/η)^β − ((a + h)/η)^β) (DESIGN §6). a, h ≥ 0 in the unit of η.
+ * 1 − R(a + h)/R(a) = 1 − exp((a/η)^β − ((a + h)/η)^β) (docs/design.md §6). a, h ≥ 0 in the unit of η.
  */
 export function weibullConditionalFailureProbability(params: WeibullParams, age: number, horizon: number): number {
   checkParams(params);

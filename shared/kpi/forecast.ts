@@ -34,7 +34,7 @@ export interface ForecastInput {
    */
   region?: readonly WeibullParams[];
   /**
-   * false (default): first life-ending event of each element in service, as DESIGN §6 states it.
+   * false (default): first life-ending event of each element in service, as docs/design.md §6 states it.
    * true: also count failures of the replacements themselves, each installed at the end of the
    * period in which its predecessor failed (a discrete renewal equation).
    */
@@ -75,7 +75,7 @@ export const forecastBandMethod =
  * Replacement forecast. With H(x) = (x/η)^β the Weibull cumulative hazard and an element of age a
  * today, period k = [s_k, e_k) days from today:
  * - conditional probability in the period, given survival to its start: 1 − exp(H(a+s) − H(a+e))
- *   (DESIGN §6's "probability within h");
+ *   (docs/design.md §6's "probability within h");
  * - probability from today, given survival to today, of the event falling in the period:
  *   P_k = [R(a+s) − R(a+e)]/R(a) = exp(H(a) − H(a+s))·(1 − exp(H(a+s) − H(a+e))).
  * Expected count in period k = Σ P_k over elements in service; expected cost = Σ P_k × the element's

@@ -1,5 +1,5 @@
 // Maintenance mix over a half-open window [from, to): planned vs reactive labour, PM compliance,
-// backlog in weeks and maintenance cost per m³ produced (DESIGN §6).
+// backlog in weeks and maintenance cost per m³ produced (docs/design.md §6).
 //
 // EN 15341 (maintenance key performance indicators) sets out indicators of this kind — shares of
 // preventive and corrective man-hours, maintenance cost per unit of output, backlog (from memory; no
@@ -144,7 +144,7 @@ const share = (part: number, total: number) => part / total;
  *   (so a past window sees the orders that were open then); hours = their labour-hour estimates; weeks =
  *   hours ÷ weekly crew capacity.
  * - Cost per m³ = (labour cost + parts cost of the counted closed orders) ÷ permeate produced in the window.
- * Source: EN 15341 (indicator families, from memory); DESIGN §6. Degenerate input: every ratio with a zero
+ * Source: EN 15341 (indicator families, from memory); docs/design.md §6. Degenerate input: every ratio with a zero
  * or unknown denominator is null with its reason; an empty window or list gives zeros and nulls, never NaN.
  */
 export function maintenanceMix(input: MaintenanceMixInput): MaintenanceMixResult {

@@ -1,4 +1,4 @@
-// Operating time T of an asset over a half-open window [from, to) (DESIGN §6).
+// Operating time T of an asset over a half-open window [from, to) (docs/design.md §6).
 //
 // Two computations; the caller decides which applies (its own run-status tag, else the nearest
 // ancestor's, else the calendar fallback) and passes the matching `source`:
@@ -227,7 +227,7 @@ function coverageOf(windowHours: number, unknownHours: number): { coverage: numb
  *
  * A state holds until the next good sample; time before the first sample is unknown (not counted) unless
  * `priorSample`, the last good sample before the window, is given. Uptime = running spans, downtime =
- * stopped spans, unknown = the rest. Source: DESIGN §6 (operating time T); terms as in EN 13306 (up time,
+ * stopped spans, unknown = the rest. Source: docs/design.md §6 (operating time T); terms as in EN 13306 (up time,
  * down time; from memory). Degenerate input: no samples → 0 h with coverage 0 and a note; empty window →
  * 0 h, coverage null with its reason.
  */
@@ -270,7 +270,7 @@ export function operatingTimeFromRunStatus(
  * T = (to − from) − |union of out-of-service windows ∩ [from, to)|, in hours.
  *
  * Overlapping out-of-service windows are merged first, so shared time is subtracted once; a window with
- * `to: null` (still out of service) runs to the window end. Source: DESIGN §6. Degenerate input: no
+ * `to: null` (still out of service) runs to the window end. Source: docs/design.md §6. Degenerate input: no
  * out-of-service windows → T is the whole window; empty window → 0 h, coverage null with its reason.
  */
 export function operatingTimeFromCalendar(

@@ -1,4 +1,4 @@
-// Normalized membrane performance of one stage, ASTM D4516 style (DESIGN §6).
+// Normalized membrane performance of one stage, ASTM D4516 style (docs/design.md §6).
 //
 // Sources, cited below as "(sources above)":
 // - ASTM D4516 "Standard Practice for Standardizing Reverse Osmosis Performance Data": the standardized
@@ -70,7 +70,7 @@ export interface PerformanceSettings {
 
 /**
  * Defaults. TDS factor, osmotic constant, U values, ΔP exponent and alert thresholds: common practice
- * (DESIGN §6; sources above); 1 psi = 0.0689475729 bar (definition of the psi).
+ * (docs/design.md §6; sources above); 1 psi = 0.0689475729 bar (definition of the psi).
  */
 export const defaultPerformanceSettings: PerformanceSettings = {
   tdsFactor: 0.67,
@@ -396,7 +396,7 @@ function changePct(value: number, baseline: number): number {
   return 100 * (value / baseline - 1);
 }
 
-/** What can set a new baseline (DESIGN §6: "the first day after the last element change or cleaning"). */
+/** What can set a new baseline (docs/design.md §6: "the first running day after the last cleaning or change-out"). */
 export interface BaselineReset {
   at: Date;
   kind: 'cleaning' | 'element-change-out';
@@ -461,7 +461,7 @@ export interface BaselineChoice {
  * Picks the baseline point of a time-sorted series: the first point at or after the latest reset time
  * (element change or cleaning) that still has a point at or after it; with no such reset, the first point
  * (the first day of running data). A point stamped before a reset is never its baseline, so a day that
- * began before a cleaning does not count as "after" it. Source: DESIGN §6 (performance baseline).
+ * began before a cleaning does not count as "after" it. Source: docs/design.md §6 (performance baseline).
  * Degenerate input: no points → null.
  */
 export function selectBaseline(points: readonly { time: Date }[], resetTimes: readonly Date[] = []): BaselineChoice | null {

@@ -19,7 +19,7 @@ import {
 export type Termination = 'time' | 'failure';
 
 /**
- * 'two-sided': a (lower, upper) interval with α/2 in each tail — DESIGN §6's default.
+ * 'two-sided': a (lower, upper) interval with α/2 in each tail — docs/design.md §6's default.
  * 'one-sided-lower': a lower bound alone with all of α in one tail ("MTBF is at least … with
  * confidence C"); the upper bound is then null. NIST §8.4.5.1: "replace α/2 by α".
  */
@@ -30,7 +30,7 @@ export interface MtbfInput {
   operatingHours: number;
   /** Number of failures r, a whole number ≥ 0. */
   failures: number;
-  /** Confidence level C = 1 − α, in (0, 1). DESIGN §6 default 0.9. */
+  /** Confidence level C = 1 − α, in (0, 1). docs/design.md §6 default 0.9. */
   confidence: number;
   terminated: Termination;
   /** Default 'two-sided'. */

@@ -114,7 +114,7 @@ export interface TimeToCompleteInput {
 /**
  * Time to complete. A job (one work order) lasts from its earliest step start to its latest step
  * end, in hours of real elapsed time (Date differences: a daylight-saving change neither adds nor
- * removes an hour); it counts as guided when any of its steps was guided (DESIGN §5).
+ * removes an hour); it counts as guided when any of its steps was guided (docs/design.md §5).
  * Per group — all, guided=yes, guided=no, crew=…, procedure=… — n, mean, median and 90th
  * percentile (type 7 sample quantile, Hyndman & Fan 1996, R's default), sample sd, min and max.
  * Learning curve: n, median and mean per caller-given period (by job start, half-open [start, end))

@@ -56,7 +56,7 @@ export const timeZoneSchema = trimmedLineSchema
 /**
  * An ISO 8601 calendar date (`2025-03-01`) or date-time with or without an offset
  * (`2025-03-01T06:00`, `2025-03-01T06:00:00Z`, `2025-03-01T06:00:00+01:00`). Kept as the raw string:
- * the server resolves a bare date or a naive date-time in the site's time zone (DESIGN §6), which a
+ * the server resolves a bare date or a naive date-time in the site's time zone (docs/design.md §6), which a
  * schema shared with the browser cannot know.
  */
 export const isoDateOrDateTimeSchema = z.union([z.iso.date(), z.iso.datetime({ offset: true, local: true })], {
@@ -81,7 +81,7 @@ export const confidenceLevelSchema = z
   .max(confidenceBounds.max, confidenceMessage);
 
 /**
- * Confidence level of interval estimates, default 0.9 (DESIGN §6). Coerced, so the query string
+ * Confidence level of interval estimates, default 0.9 (docs/design.md §6). Coerced, so the query string
  * `confidence=0.95` and the CLI's `--confidence 0.95` both arrive as numbers.
  */
 export const confidenceSchema = z.coerce

@@ -1,4 +1,4 @@
-// Enumerations of DESIGN.md §2, §4 and §5, kept in one place for the database checks,
+// Enumerations of docs/design.md §2, §4 and §5, kept in one place for the database checks,
 // the import row schemas, the API and the client.
 
 export const roles = ['admin', 'engineer', 'manager', 'finance'] as const;

@@ -7,7 +7,7 @@ export const importKindSchema = z.enum(importKinds);
 export const rejectSchema = z.object({ line: z.number().int(), reason: z.string() });
 export type Reject = z.infer<typeof rejectSchema>;
 
-/** The import record: what `osmia import --json` prints and GET /api/imports/:id answers (DESIGN §7). */
+/** The import record: what `osmia import --json` prints and GET /api/imports/:id answers (docs/design.md §7). */
 export const importRecordSchema = z.object({
   id: z.number().int().nullable(),
   kind: importKindSchema,
@@ -67,7 +67,7 @@ export const importUploadFieldsSchema = z.object({
 });
 export type ImportUploadFields = z.infer<typeof importUploadFieldsSchema>;
 
-/** Canonical columns of each kind (DESIGN §5); historian long/wide are told apart by the header. */
+/** Canonical columns of each kind (docs/design.md §5); historian long/wide are told apart by the header. */
 export const importColumns = {
   assets: ['code', 'name', 'kind', 'parent', 'rated_permeate_m3h', 'element_capacity', 'rack_row', 'rack_col'],
   tags: ['tag', 'asset', 'quantity', 'unit'],

@@ -1,6 +1,6 @@
 // Answers and queries of the operations KPIs: performance (normalized membrane performance),
 // downtime and maintenance mix (GET /api/kpi/<name>, `osmia kpi <name> --json`). Key names follow
-// DESIGN §7: camelCase with unit suffixes; the downtime keys listed there may not be renamed, further
+// docs/design.md §7: camelCase with unit suffixes; the downtime keys listed there may not be renamed, further
 // keys may be added. The objects are those of shared/kpi/performance.ts, downtime.ts and
 // maintenance-mix.ts, wrapped with the site, the resolved window and provenance by the service.
 import { z } from 'zod';
@@ -185,7 +185,7 @@ export type PerformanceReport = z.infer<typeof performanceReportSchema>;
 export const downtimeQuerySchema = windowQuerySchema.extend({});
 export type DowntimeQuery = z.infer<typeof downtimeQuerySchema>;
 
-/** DESIGN §7 keys: asset, from, to, hours, planned, cause, lostVolumeM3. */
+/** docs/design.md §7 keys: asset, from, to, hours, planned, cause, lostVolumeM3. */
 export const downtimeEventSchema = z.object({
   asset: z.string(),
   from: isoInstantSchema,
@@ -207,7 +207,7 @@ export const downtimeEventSchema = z.object({
   alsoStopped: z.array(z.string()),
 });
 
-/** DESIGN §7 keys: asset, events, hours, plannedHours, unplannedHours, lostVolumeM3, cost. */
+/** docs/design.md §7 keys: asset, events, hours, plannedHours, unplannedHours, lostVolumeM3, cost. */
 export const downtimeTotalSchema = z.object({
   asset: z.string(),
   events: count,

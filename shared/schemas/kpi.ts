@@ -1,5 +1,5 @@
 // Answers and queries of the KPI endpoints reliability, element-life, forecast and
-// time-to-complete (GET /api/kpi/<name>, `osmia kpi <name> --json`). Key names are DESIGN §7's:
+// time-to-complete (GET /api/kpi/<name>, `osmia kpi <name> --json`). Key names are docs/design.md §7's:
 // camelCase with a unit suffix; the keys listed there may not be renamed, further keys may be added.
 // Performance and downtime live in kpi-ops.ts.
 import { z } from 'zod';
@@ -33,7 +33,7 @@ const reasonsSchema = z.record(z.string(), nullReasonSchema);
 
 export const quantileMethodType7 = 'type7 (Hyndman & Fan 1996; R default)' as const;
 
-/** Where operating time T came from (DESIGN §6), as shared/kpi/operating-time.ts names it. */
+/** Where operating time T came from (docs/design.md §6), as shared/kpi/operating-time.ts names it. */
 export const operatingTimeSources = [
   'run-status',
   'ancestor-run-status',
@@ -47,7 +47,7 @@ const fraction = z.number().min(0).max(1);
 const count = z.number().int().nonnegative();
 const confidence = z.number().gt(0).lt(1);
 
-/** What a number was computed from, so any figure can be explained (DESIGN §6, last paragraph). */
+/** What a number was computed from, so any figure can be explained (docs/design.md §6, last paragraph). */
 export const provenanceSchema = z.object({
   /** External work-order numbers used. */
   workOrders: z.array(z.string()),
@@ -115,7 +115,7 @@ export const reliabilityReportSchema = reliabilityFiguresSchema.extend({
   from: isoInstantSchema.nullable(),
   to: isoInstantSchema.nullable(),
   confidence,
-  /** How the MTBF bounds were computed; DESIGN §6: two-sided, time-terminated. */
+  /** How the MTBF bounds were computed; docs/design.md §6: two-sided, time-terminated. */
   sides: z.enum(['two-sided', 'one-sided-lower']).optional(),
   terminated: z.enum(['time', 'failure']).optional(),
   groups: z.array(reliabilityGroupSchema).optional(),
@@ -232,7 +232,7 @@ export type ElementLifeReport = z.infer<typeof elementLifeReportSchema>;
 export const forecastQuerySchema = windowQuerySchema.extend({
   groupBy: elementGroupBySchema,
   months: z.coerce.number().int().min(1).max(60).default(12),
-  /** Count failures of the replacements too (default false: first events only, as DESIGN §6). */
+  /** Count failures of the replacements too (default false: first events only, as docs/design.md §6). */
   renewal: z.union([z.boolean(), z.stringbool()]).default(false),
 });
 export type ForecastQuery = z.infer<typeof forecastQuerySchema>;

@@ -25,7 +25,7 @@ export type Settings = z.infer<typeof settingsSchema>;
 export type SettingKey = keyof Settings;
 
 /**
- * Defaults: DESIGN.md §6 (normalization constants: common practice; alert levels: common practice,
+ * Defaults: docs/design.md §6 (normalization constants: common practice; alert levels: common practice,
  * flow −10 %, ΔP +15 %, salt passage +5 %; a performance baseline resets after a change-out of 20 % of
  * a stage's elements within 7 days, not after a single swap: common practice); costs are the demo
  * plant's invented figures.

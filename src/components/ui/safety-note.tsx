@@ -12,7 +12,7 @@ export interface SafetyNoteProps {
 }
 
 /**
- * The safety note beside anything that leads to work on the plant (DESIGN §9). It has no close
+ * The safety note beside anything that leads to work on the plant (docs/design.md §9). It has no close
  * button and no collapsed state on purpose: the cautions must stay on screen with the advice.
  */
 export function SafetyNote({ cautions = maintenanceCautions, className }: SafetyNoteProps) {

@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { type DemoManifest, generateDemoPlant } from '#server/demo/generate.ts';
 import { demoPlant } from '#server/demo/plant.ts';
 
-// Headers copied from DESIGN §5 (canonical import formats), not from the generator, so a drift fails.
+// Headers copied from docs/design.md §5 (canonical import formats), not from the generator, so a drift fails.
 const canonicalHeaders: Record<string, string> = {
   assets: 'code,name,kind,parent,rated_permeate_m3h,element_capacity,rack_row,rack_col',
   tags: 'tag,asset,quantity,unit',

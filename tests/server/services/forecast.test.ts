@@ -1,5 +1,5 @@
 // Replacement forecast through the importers and the service: calendar months in the site's zone,
-// each month's expected count against the closed form of DESIGN §6, the pooled fit of a group that
+// each month's expected count against the closed form of docs/design.md §6, the pooled fit of a group that
 // has none of its own, cautions, and the edges.
 import { beforeFreshnessSchema } from '#shared/schemas/common.ts';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -96,7 +96,7 @@ describe('forecast: twelve calendar months from a known fit', () => {
     const r = await forecast({ site: 'FC', to: '2021-01-01' });
     const g = r.groups[0]!;
     const H = hazard(g.weibull!.shape, g.weibull!.scaleDays);
-    // DESIGN §6: probability of a life-ending event within h of a unit of age a. January has h = 31 days.
+    // docs/design.md §6: probability of a life-ending event within h of a unit of age a. January has h = 31 days.
     const closedForm = (a: number, h: number) => 1 - Math.exp(H(a) - H(a + h));
     expect(g.months[0]!.expectedCount).toBeCloseTo(closedForm(30, 31) + closedForm(60, 31), 10);
     for (const m of g.months) {

@@ -1,7 +1,7 @@
 // Performance service on the invented plant of ops-plant.ts (importers + `osmia refresh`).
 // Expected normalized changes are worked again here, independently of shared/kpi/performance.ts, from the
 // ASTM D4516 structure (normalized flow = Qp · NDPref/NDP · TCF/TCFref; NDP = Pf − ΔP/2 − Pp − (πfb − πp);
-// log-mean feed-brine concentration Cf·ln(1/(1−Y))/Y), with the common-practice constants of DESIGN §6:
+// log-mean feed-brine concentration Cf·ln(1/(1−Y))/Y), with the common-practice constants of docs/design.md §6:
 // TDS = 0.67 × conductivity and 1 psi (0.0689475729 bar) per 100 mg/L TDS.
 import { beforeFreshnessSchema } from '#shared/schemas/common.ts';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';

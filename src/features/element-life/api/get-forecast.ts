@@ -4,7 +4,7 @@ import { apiRequest } from '../../../lib/api-client.ts';
 import { toSearch, windowQuery } from '../../../lib/kpi-window.ts';
 import { elementLifeKeys, type ElementLifeParams } from './get-element-life.ts';
 
-/** The forecast always looks 12 months ahead of the window's end (DESIGN §6: next year's purchases). */
+/** The forecast always looks 12 months ahead of the window's end (docs/design.md §6: next year's purchases). */
 const months = 12;
 
 const paramsOf = (p: ElementLifeParams) => ({ ...windowQuery(p), groupBy: p.groupBy, months });

@@ -46,7 +46,7 @@ export const statusMeanings: Record<ImportStatus, string> = {
   duplicate: 'This file was imported before: nothing changed.',
 };
 
-/** The canonical header of a kind, optional columns in brackets (DESIGN §5). */
+/** The canonical header of a kind, optional columns in brackets (docs/design.md §5). */
 export function columnsHint(kind: ImportKind): string {
   const optional = new Set(optionalColumns[kind] ?? []);
   const columns = importColumns[kind].map((c) => (optional.has(c) ? `[${c}]` : c)).join(', ');

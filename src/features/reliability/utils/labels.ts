@@ -17,7 +17,7 @@ export type ReliabilityFigures = Pick<
   | 'reasons'
 >;
 
-/** Where operating time came from (DESIGN §6), in words. */
+/** Where operating time came from (docs/design.md §6), in words. */
 export const operatingTimeSourceLabels: Record<NonNullable<ReliabilityFigures['operatingTimeSource']>, string> = {
   'run-status': 'own run status',
   'ancestor-run-status': 'parent’s run status',
