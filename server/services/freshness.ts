@@ -51,7 +51,7 @@ export async function freshnessOf(db: Db, site: string | undefined, to: string |
   if (!upToDate) {
     warnings.push(
       `Samples imported for ${countOf(lag.tags, 'tag', 'tags')} of ${site} are not yet in the hourly rollups and stop events ` +
-        `(${countOf(Math.ceil(lag.tagHours), 'tag-hour', 'tag-hours')} to rebuild): stops, operating time, produced volume and ` +
+        `(${Math.ceil(lag.tagHours).toLocaleString('en')} ${Math.ceil(lag.tagHours) === 1 ? 'tag-hour' : 'tag-hours'} to rebuild): stops, operating time, produced volume and ` +
         `performance may be missing or out of date. Run "bin/osmia refresh", then ask again.`,
     );
   }

@@ -20,8 +20,7 @@ import { elementLifeReportSchema, forecastReportSchema, reliabilityReportSchema,
 import { settingsSchema } from '#shared/schemas/settings.ts';
 import { openWorkOrdersSchema } from '#shared/schemas/work-orders.ts';
 import { seedDemo } from '#server/demo/seed.ts';
-import { runImport } from '#server/importers/run.ts';
-import { fileWith } from '../server/importers/helpers.ts';
+import { refresh } from '#server/jobs/refresh.ts';
 import { buildClient, launchChromium, listen, tearDown } from './harness.ts';
 import { createTestApp, rolePasswords, type TestApp } from '../setup/app.ts';
 
@@ -699,22 +698,28 @@ describe('issue 13: what a new user meets on the pages', () => {
     await closeSession(s);
   });
 
-  it('a note about data that awaits a refresh shows the command as code, not between backticks', async () => {
-    // Two run-status samples imported as cron would, before `osmia refresh` has rolled them up.
-    const csv = ['timestamp,tag,value,quality', '2026-06-15T10:30:00Z,T1.RUN,1,good', '2026-06-15T10:40:00Z,T1.RUN,1,good'].join('\n');
-    const record = await runImport(t.db, { kind: 'historian', path: fileWith(csv, 'late-run-status.csv'), site: siteCode, actor: 'test' });
-    expect(record.rowsInserted).toBe(2);
-    const report = await api('finance', '/api/kpi/downtime', downtimeReportSchema);
-    const note = report.notes.find((n) => n.includes('osmia refresh'));
-    expect(note, 'the downtime answer names the pending refresh').toBeDefined();
-    const s = await openSession();
-    await signIn(s, 'finance', '/downtime');
-    await heading(s.page, 'Downtime');
-    await s.page.getByText(/^Notes on the data/).click();
-    const code = s.page.getByRole('main').locator('details li code', { hasText: 'osmia refresh' });
-    await code.first().waitFor();
-    readable(await mainText(s.page), 'downtime notes');
-    await shot(s.page, 'issue13-downtime-notes');
-    await closeSession(s);
+  it('derived data lagging more than a request rebuilds shows as a banner naming the command, and clears after refresh', async () => {
+    // What a bulk load with --no-refresh leaves: years of queued hours for a run-status tag.
+    await t.db.$client.query(
+      `insert into dirty_hours (tag_id, from_hour, to_hour) select id, '2020-01-01', '2026-06-16' from tags where name = 'T1.RUN' and site_id = (select id from sites where code = $1)`,
+      [siteCode],
+    );
+    try {
+      const report = await api('finance', '/api/kpi/downtime', downtimeReportSchema);
+      expect(report.derivedUpToDate).toBe(false);
+      expect(report.warnings).toEqual([expect.stringContaining('Run "bin/osmia refresh", then ask again.')]);
+      const s = await openSession();
+      await signIn(s, 'finance', '/downtime');
+      await heading(s.page, 'Downtime');
+      const banner = s.page.getByRole('alert').filter({ hasText: 'These figures may be incomplete' });
+      await banner.first().waitFor();
+      expect(await banner.first().innerText()).toContain(report.warnings[0]);
+      readable(await mainText(s.page), 'downtime banner');
+      await shot(s.page, 'downtime-lagging-banner');
+      await closeSession(s);
+    } finally {
+      await refresh(t.db);
+    }
+    expect((await api('finance', '/api/kpi/downtime', downtimeReportSchema)).warnings).toEqual([]);
   });
 });
