@@ -2,7 +2,7 @@ import type pg from 'pg';
 import type { Reject } from '#shared/schemas/imports.ts';
 import type { SiteRow } from '../db/queries/sites.ts';
 import type { Source } from './source.ts';
-import type { TimestampReader } from './values.ts';
+import type { TimestampReader } from '#shared/timestamps.ts';
 
 /** Most rejects kept per import; the count stays exact beyond it. */
 export const maxStoredRejects = 100_000;

@@ -17,14 +17,16 @@ import {
   insertRunningImport,
   sweepInterruptedImports,
 } from '../db/queries/imports.ts';
-import { findSite, insertSite, listSites, type SiteRow } from '../db/queries/sites.ts';
+import { insertSite, type SiteRow } from '../db/queries/sites.ts';
+import { HttpError } from '../errors.ts';
+import { resolveSite } from '../services/scope.ts';
 import { applyColumnMap, type ColumnMap } from './column-map.ts';
 import { RejectSink, type KindContext, type KindResult } from './context.ts';
 import { ImportFileError } from './errors.ts';
 import { importHistorian } from './historian.ts';
 import { importAssets, importElements, importJobSteps, importTags, importWorkOrders } from './registers.ts';
 import { openSource } from './source.ts';
-import { TimestampReader } from './values.ts';
+import { TimestampReader } from '#shared/timestamps.ts';
 
 export interface ImportOptions {
   kind: ImportKind;
@@ -84,20 +86,14 @@ export async function sha256File(path: string): Promise<string> {
   return hash.digest('hex');
 }
 
-/** The site an import is for: named, the only one, or (assets only) a new one. */
-async function resolveSite(db: Db, opts: ImportOptions): Promise<SiteRow | { create: string }> {
-  if (opts.site) {
-    const found = await findSite(db.$client, opts.site);
-    if (found) return found;
-    if (opts.kind === 'assets') return { create: opts.site };
-    throw new ImportFileError(`Site "${opts.site}" does not exist: import its asset register first (osmia import assets --site ${opts.site} …).`);
+/** The site an import is for: named, the only one (services/scope.ts resolves both), or — an asset register only — a new one. */
+async function siteForImport(db: Db, opts: ImportOptions): Promise<SiteRow | { create: string }> {
+  try {
+    return await resolveSite(db, opts.site);
+  } catch (err) {
+    if (opts.kind === 'assets' && opts.site && err instanceof HttpError && err.code === 'site-not-found') return { create: opts.site };
+    throw err;
   }
-  const sites = await listSites(db.$client);
-  if (sites.length === 1) return sites[0];
-  if (sites.length === 0) {
-    throw new ImportFileError('No site exists yet: import an asset register first with --site CODE (and --tz ZONE).');
-  }
-  throw new ImportFileError(`Several sites exist (${sites.map((s) => s.code).join(', ')}): name one with --site.`);
 }
 
 function checkHeader(kind: ImportKind, columns: string[]): void {
@@ -173,9 +169,9 @@ export async function runImport(db: Db, opts: ImportOptions): Promise<ImportReco
 
   let site: SiteRow | { create: string };
   try {
-    site = await resolveSite(db, opts);
+    site = await siteForImport(db, opts);
   } catch (err) {
-    if (err instanceof ImportFileError) return record({ error: err.message });
+    if (err instanceof HttpError) return record({ error: err.message });
     throw err;
   }
   const siteId = 'id' in site ? site.id : null;

@@ -19,12 +19,11 @@ import type {
 import type { Db } from '../db/client.ts';
 import type { AssetRecord } from '../db/queries/assets.ts';
 import { listElementInstalls, type ElementInstall } from '../db/queries/elements.ts';
-import { ancestry, queryBounds, resolveSiteOnly, scopeOfSite, type KpiScope } from './scope.ts';
+import { ancestry, queryBounds, resolveSite, scopeOfSite, type KpiScope } from './scope.ts';
+import { PROVENANCE_CAP } from './provenance.ts';
 
 const DAY_MS = 86_400_000;
 
-/** Serial numbers listed in provenance at most; the full count is given beside them. */
-export const provenanceSerialCap = 500;
 
 export type ElementGroupBy = ElementLifeQuery['groupBy'];
 type ElementLifeGroup = ElementLifeReport['groups'][number];
@@ -63,7 +62,7 @@ export async function elementScope(
   db: Db,
   query: WindowQuery,
 ): Promise<{ scope: KpiScope; places: Map<number, VesselPlace>; installs: ElementInstall[] }> {
-  const site = await resolveSiteOnly(db, query.site);
+  const site = await resolveSite(db, query.site);
   const bounds = queryBounds(query, site.timeZone);
   const [scope, siteInstalls] = await Promise.all([
     scopeOfSite(db, site, query, ['elements']),
@@ -205,10 +204,10 @@ export function weibullOut(fit: WeibullFit): WeibullOut {
   };
 }
 
-/** Serial numbers for provenance: distinct, sorted, at most `provenanceSerialCap`, with the count. */
+/** Serial numbers for provenance: distinct, sorted, at most `PROVENANCE_CAP`, with the count. */
 export function serialProvenance(serials: readonly string[]): { elements: string[]; elementCount: number } {
   const distinct = [...new Set(serials)].sort();
-  return { elements: distinct.slice(0, provenanceSerialCap), elementCount: distinct.length };
+  return { elements: distinct.slice(0, PROVENANCE_CAP), elementCount: distinct.length };
 }
 
 function finiteOrNull(x: number): number | null {
@@ -305,7 +304,7 @@ export function elementLifeGroup(key: string, lives: readonly ElementLifeObserva
  * Degenerate input: no elements → the `all` group with n = 0 and null figures ('no-data');
  * all censored → null fit ('no-events') with the KM curve flat at 1 ('not-reached'); every event at
  * the longest age → null fit ('shape-diverges'). Never NaN. Provenance: element serials (at most
- * `provenanceSerialCap`, `elementCount` gives the full number) and the window used.
+ * `PROVENANCE_CAP`, `elementCount` gives the full number) and the window used.
  */
 export async function getElementLife(db: Db, query: ElementLifeQuery): Promise<BeforeFreshness<ElementLifeReport>> {
   const { scope, places, installs } = await elementScope(db, query);

@@ -12,11 +12,10 @@ import { integrateHourlyMeans } from '../db/queries/sample-hourly.ts';
 import { listTags, type TagRow } from '../db/queries/tags.ts';
 import { listWorkOrdersOpenDuring } from '../db/queries/work-orders.ts';
 import { ancestry, resolveScope, subtree, type KpiScope } from './scope.ts';
+import { PROVENANCE_CAP } from './provenance.ts';
 
 const HOUR_MS = 3_600_000;
 
-/** Work-order numbers listed in provenance at most; `workOrderCount` gives the full number. */
-export const provenanceWorkOrderCap = 1000;
 
 export interface ProducedVolume {
   /** m³ of permeate in the window; null when it cannot be known. */
@@ -143,7 +142,7 @@ export async function getMaintenanceMix(db: Db, query: MaintenanceMixQuery, sett
   });
   const numbers = orders.map((o) => o.woNumber);
   const provenance: Provenance & { workOrderCount: number; trains: string[] } = {
-    workOrders: numbers.slice(0, provenanceWorkOrderCap),
+    workOrders: numbers.slice(0, PROVENANCE_CAP),
     workOrderCount: numbers.length,
     tags: produced.tags,
     trains: produced.trains,

@@ -23,7 +23,7 @@ import { dailyMeansWhileRunning } from '../db/queries/sample-hourly.ts';
 import { listTags, type TagRow } from '../db/queries/tags.ts';
 import { listPreventiveWorkOrders } from '../db/queries/work-orders.ts';
 import { badRequest } from '../errors.ts';
-import { capped } from './downtime.ts';
+import { capped } from './provenance.ts';
 import { ancestry, resolveScope, subtree } from './scope.ts';
 
 /** The quantities a stage needs for a normalized point, and the PerformancePoint field each fills. */

@@ -21,7 +21,8 @@ import type { Db } from '../db/client.ts';
 import type { AssetRecord } from '../db/queries/assets.ts';
 import { listTags, type TagRow } from '../db/queries/tags.ts';
 import { listWorkOrdersReportedOrOutOfServiceIn, type WorkOrderValues } from '../db/queries/work-orders.ts';
-import { capped, loadRunStatusHistories, type RunStatusHistory } from './downtime.ts';
+import { loadRunStatusHistories, type RunStatusHistory } from './run-status.ts';
+import { capped } from './provenance.ts';
 import { ancestry, resolveScope, subtree } from './scope.ts';
 
 const MS_PER_HOUR = 3_600_000;

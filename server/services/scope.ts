@@ -4,7 +4,7 @@ import type { Db } from '../db/client.ts';
 import { listAssets, type AssetRecord } from '../db/queries/assets.ts';
 import { findSite, listSites, type SiteRow } from '../db/queries/sites.ts';
 import { HttpError, badRequest, notFound } from '../errors.ts';
-import { TimestampReader } from '../importers/values.ts';
+import { TimestampReader } from '#shared/timestamps.ts';
 
 export interface KpiScope {
   site: SiteRow;
@@ -68,16 +68,20 @@ export async function dataExtent(db: Db, siteId: number, sources: readonly DataS
   return rows[0] ?? { from: null, to: null };
 }
 
-export async function resolveSiteOnly(db: Db, code: string | undefined): Promise<SiteRow> {
+/**
+ * The site a KPI question or an import is about: the one named, or the only one there is. The one place
+ * a site code is resolved; its errors (HttpError `site-not-found`, `site-required`) say what to do.
+ */
+export async function resolveSite(db: Db, code: string | undefined): Promise<SiteRow> {
   if (code) {
     const site = await findSite(db.$client, code);
-    if (!site) throw notFound('site-not-found', `No site "${code}".`);
+    if (!site) throw notFound('site-not-found', `Site "${code}" does not exist: import its asset register first (bin/osmia import assets FILE --site ${code} --tz ZONE).`);
     return site;
   }
   const sites = await listSites(db.$client);
   if (sites.length === 1) return sites[0];
-  if (sites.length === 0) throw notFound('site-not-found', 'No site exists yet: import an asset register first.');
-  throw new HttpError(400, 'site-required', `Several sites exist (${sites.map((s) => s.code).join(', ')}): name one with site.`);
+  if (sites.length === 0) throw notFound('site-not-found', 'No site exists yet: import an asset register first, naming the site (--site CODE, and --tz ZONE).');
+  throw new HttpError(400, 'site-required', `Several sites exist (${sites.map((s) => s.code).join(', ')}): name one with site (--site on the command line).`);
 }
 
 export async function resolveScope(
@@ -85,7 +89,7 @@ export async function resolveScope(
   query: WindowQuery,
   sources: readonly DataSource[] = ['samples', 'work-orders'],
 ): Promise<KpiScope> {
-  return scopeOfSite(db, await resolveSiteOnly(db, query.site), query, sources);
+  return scopeOfSite(db, await resolveSite(db, query.site), query, sources);
 }
 
 /** The bounds the query gives, in the site's zone (null where it gives none); refuses an empty window. */

@@ -8,10 +8,9 @@ import { timeToComplete, type JobInfo, type LearningBucket } from '#shared/kpi/t
 import type { Provenance, TimeToCompleteQuery, TimeToCompleteReport } from '#shared/schemas/kpi.ts';
 import type { Db } from '../db/client.ts';
 import { listJobSpans, type JobSpanWithOrder } from '../db/queries/job-steps.ts';
-import { dataExtent, queryBounds, resolveSiteOnly, scopeOfSite } from './scope.ts';
+import { dataExtent, queryBounds, resolveSite, scopeOfSite } from './scope.ts';
+import { PROVENANCE_CAP } from './provenance.ts';
 
-/** Work-order numbers listed in provenance at most; `workOrderCount` gives the full number. */
-export const provenanceWorkOrderCap = 1000;
 
 /** How a job's procedure is named, said in every answer. */
 export const procedureDefinition =
@@ -79,7 +78,7 @@ export async function getTimeToComplete(db: Db, query: TimeToCompleteQuery): Pro
   // does not look at job steps, and a still-open work order's steps can come after it. The answer's
   // window is the work orders' extent widened to the jobs found. Site-wide (no asset asked about) the
   // jobs need only the site, so they, the assets and that extent are read in one wait.
-  const site = await resolveSiteOnly(db, query.site);
+  const site = await resolveSite(db, query.site);
   const bounds = queryBounds(query, site.timeZone);
   const [scope, siteJobs, extent] = await Promise.all([
     scopeOfSite(db, site, query, []),
@@ -124,7 +123,7 @@ export async function getTimeToComplete(db: Db, query: TimeToCompleteQuery): Pro
   }));
   const numbers = result.jobs.map((j) => j.woNumber).sort();
   const provenance: Provenance & { workOrderCount: number } = {
-    workOrders: numbers.slice(0, provenanceWorkOrderCap),
+    workOrders: numbers.slice(0, PROVENANCE_CAP),
     workOrderCount: numbers.length,
     tags: [],
     windows: from && to ? [{ from: from.toISOString(), to: to.toISOString(), what: 'jobs whose first step started in this window' }] : [],
