@@ -6,6 +6,7 @@ import { requireUser } from './guard.tsx';
 import { AppShell } from './layout/app-shell.tsx';
 import { LoadingShell } from './layout/loading-shell.tsx';
 import { RouteErrorRoute } from './routes/route-error.tsx';
+import { showZoneOfPage } from './site-zone.ts';
 
 // Pages load on demand: each route module brings its loader (built around the app's query client,
 // prefetching the queryOptions its components read) and its component. Only pages whose entry in
@@ -28,6 +29,7 @@ export function createAppRouter(queryClient: QueryClient) {
       errorElement: <RouteErrorRoute />,
       loader: async ({ request }) => {
         await requireUser(queryClient, request);
+        await showZoneOfPage(queryClient, request);
         return null;
       },
       children: [

@@ -1,6 +1,29 @@
 // Display formatting in the reader's locale. Values stay in their API units; only the text changes.
 
-const dateTime = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+/**
+ * The zone dates and times are shown in: the plant's own (set once its site is known, see
+ * src/app/site-zone.ts), so a reader far from the plant sees a stop at 06:00 when the plant's clock said
+ * 06:00, as the imports and KPI windows read it (docs/design.md §5, §6). Undefined: the browser's zone.
+ */
+let displayZone: string | undefined;
+let dateTime = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+let dateOnly = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' });
+
+/** Show dates and times in `timeZone` (an IANA name); an unknown name keeps the browser's zone. */
+export function setDisplayTimeZone(timeZone: string | undefined): void {
+  try {
+    dateTime = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short', timeZone });
+    dateOnly = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeZone });
+    displayZone = timeZone;
+  } catch {
+    // RangeError for a zone this browser does not know: stay as we were.
+  }
+}
+
+/** The zone set by setDisplayTimeZone, if any. */
+export function displayTimeZone(): string | undefined {
+  return displayZone;
+}
 
 /** An ISO 8601 instant as local date and time; null and unparsable values read "—". */
 export function formatDateTime(iso: string | null | undefined): string {
@@ -44,8 +67,6 @@ export function formatDuration(seconds: number): string {
   }
   return parts.join(' ');
 }
-
-const dateOnly = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' });
 
 /** An ISO 8601 instant as a local calendar date ("3 Mar 2026"); null and unparsable values read "—". */
 export function formatDate(iso: string | null | undefined): string {

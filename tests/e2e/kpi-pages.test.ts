@@ -69,8 +69,8 @@ interface Session {
   problems: () => string[];
 }
 
-async function openSession(viewport = { width: 1280, height: 860 }): Promise<Session> {
-  const context = await browser.newContext({ viewport, locale: 'en-GB', timezoneId: timeZone });
+async function openSession(viewport = { width: 1280, height: 860 }, timezoneId = timeZone): Promise<Session> {
+  const context = await browser.newContext({ viewport, locale: 'en-GB', timezoneId });
   const page = await context.newPage();
   const problems: string[] = [];
   page.on('pageerror', (err) => problems.push(`page error: ${err.message}`));
@@ -721,5 +721,18 @@ describe('issue 13: what a new user meets on the pages', () => {
       await refresh(t.db);
     }
     expect((await api('finance', '/api/kpi/downtime', downtimeReportSchema)).warnings).toEqual([]);
+  });
+  it('shows dates in the plant’s zone to a reader in another one', async () => {
+    const report = await api('manager', '/api/kpi/downtime?from=2026-01-01&to=2026-07-01', downtimeReportSchema);
+    const latest = report.events.reduce((a, b) => (a.from > b.from ? a : b));
+    const at = (zone: string) => new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short', timeZone: zone }).format(new Date(latest.from));
+    expect(at(timeZone)).not.toBe(at('Asia/Tokyo'));
+    const s = await openSession(undefined, 'Asia/Tokyo');
+    await signIn(s, 'manager', '/downtime?from=2026-01-01&to=2026-07-01');
+    await heading(s.page, 'Downtime');
+    const stops = s.page.getByRole('table', { name: /stops$/ });
+    await expect.poll(async () => (await stops.innerText()).includes(at(timeZone)), { timeout: 20_000 }).toBe(true);
+    expect(await stops.innerText()).not.toContain(at('Asia/Tokyo'));
+    await closeSession(s);
   });
 });
