@@ -8,7 +8,7 @@ import { FreshnessBanner } from '../../../components/ui/freshness-banner.tsx';
 /** Dashboard: down time, lost permeate and its cost by asset, and the causes that took the most hours. */
 export function DowntimeSummaryCard({ params, currency, footer }: { params: DowntimeParams; currency: string; footer?: ReactNode }) {
   const report = useDowntime(params);
-  const assets = [...report.totals].sort((a, b) => b.hours - a.hours).slice(0, 4);
+  const assets = [...report.totals].filter((t) => t.events > 0).sort((a, b) => b.hours - a.hours).slice(0, 4);
   const causes = report.paretoByCause.slice(0, 5);
   const longest = Math.max(...causes.map((c) => c.hours), 1);
   return (
@@ -67,7 +67,10 @@ export function DowntimeSummaryCard({ params, currency, footer }: { params: Down
           </ul>
         </>
       )}
-      <p className="mt-3 text-xs text-basin-600">A train stops with its pumps, so their rows can cover the same hours: they are not added up.</p>
+      <p className="mt-3 text-xs text-basin-600">
+        Each stop counted once (a pump that stops with its train is in the train’s row): {formatHours(report.plant.hours)} in {report.plant.events}{' '}
+        {report.plant.events === 1 ? 'stop' : 'stops'} for the plant.
+      </p>
       {footer}
     </Card>
   );
