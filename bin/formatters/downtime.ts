@@ -1,5 +1,5 @@
 // `osmia kpi downtime`: the stops, totals per asset and the Pareto tables, lost volume in m³ and cost.
-import type { DowntimeReport } from '#shared/schemas/kpi-ops.ts';
+import type { DowntimeReport } from '#shared/schemas/downtime.ts';
 import { formatNumber, formatTable } from '../output.ts';
 
 /** Most stop rows printed; `--json` gives them all. */

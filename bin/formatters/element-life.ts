@@ -1,6 +1,6 @@
 // `osmia kpi element-life`: one row per group with the Weibull fit and the life figures in days.
 import { nullReasonMessages } from '#shared/kpi/stats.ts';
-import type { ElementLifeReport } from '#shared/schemas/kpi.ts';
+import type { ElementLifeReport } from '#shared/schemas/element-life.ts';
 import { formatNumber, formatTable } from '../output.ts';
 
 /**

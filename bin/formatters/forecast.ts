@@ -1,6 +1,6 @@
 // `osmia kpi forecast`: expected replacements and cost month by month, then the safety cautions.
 import { vesselWorkCautions } from '#shared/cautions.ts';
-import type { ForecastReport } from '#shared/schemas/kpi.ts';
+import type { ForecastReport } from '#shared/schemas/forecast.ts';
 import { formatNumber, formatTable } from '../output.ts';
 
 type Band = { lower: number | null; upper: number | null };

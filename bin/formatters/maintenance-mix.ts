@@ -1,5 +1,5 @@
 // `osmia kpi maintenance-mix`: a small table of the mix, compliance, backlog and cost per m³.
-import type { MaintenanceMixReport } from '#shared/schemas/kpi-ops.ts';
+import type { MaintenanceMixReport } from '#shared/schemas/maintenance-mix.ts';
 import { formatNumber, formatTable } from '../output.ts';
 
 const percent = (share: number | null) => (share === null ? null : `${formatNumber(share * 100, 1)} %`);

@@ -1,6 +1,6 @@
 // `osmia kpi performance`: per stage the baseline, the latest normalized figures against it, the last days
 // of the trend, and the alerts with their recommendations and safety cautions.
-import type { PerformanceReport } from '#shared/schemas/kpi-ops.ts';
+import type { PerformanceReport } from '#shared/schemas/performance.ts';
 import { formatNumber, formatTable } from '../output.ts';
 
 /** Days of the trend printed per stage; `--json` gives every point. */

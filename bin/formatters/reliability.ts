@@ -1,6 +1,6 @@
 // `osmia kpi reliability`: the key figures of the asset (or site), then one row per group, then notes.
 import { nullReasonMessages, type NullReason } from '#shared/kpi/stats.ts';
-import type { ReliabilityReport } from '#shared/schemas/kpi.ts';
+import type { ReliabilityReport } from '#shared/schemas/reliability.ts';
 import { formatNumber, formatTable } from '../output.ts';
 
 const percent = (share: number | null | undefined) => (share === null || share === undefined ? null : `${formatNumber(share * 100, 1)} %`);

@@ -1,6 +1,6 @@
 // `osmia kpi time-to-complete`: one row per group of jobs with n, mean, median and p90 in hours.
 import { vesselWorkCautions } from '#shared/cautions.ts';
-import type { TimeToCompleteReport } from '#shared/schemas/kpi.ts';
+import type { TimeToCompleteReport } from '#shared/schemas/time-to-complete.ts';
 import { formatTable } from '../output.ts';
 
 /** A plain-text report: group rows, the learning curve by period, the quantile method and the cautions. */

@@ -10,12 +10,8 @@ import {
 } from '#shared/kpi/element-life.ts';
 import { lifeEndingReasons } from '#shared/schemas/enums.ts';
 import type { WindowQuery } from '#shared/schemas/common.ts';
-import type {
-  ElementLifeQuery,
-  ElementLifeReport,
-  NullReason,
-  Provenance,
-} from '#shared/schemas/kpi.ts';
+import type { NullReason, Provenance } from '#shared/schemas/answer.ts';
+import type { ElementLifeQuery, ElementLifeReport } from '#shared/schemas/element-life.ts';
 import type { Db } from '../db/client.ts';
 import type { AssetRecord } from '../db/queries/assets.ts';
 import { listElementInstalls, type ElementInstall } from '../db/queries/elements.ts';

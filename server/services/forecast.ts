@@ -12,7 +12,8 @@ import {
   type ForecastElement,
   type ForecastPeriod,
 } from '#shared/kpi/forecast.ts';
-import type { ForecastQuery, ForecastReport, Provenance } from '#shared/schemas/kpi.ts';
+import type { Provenance } from '#shared/schemas/answer.ts';
+import type { ForecastQuery, ForecastReport } from '#shared/schemas/forecast.ts';
 import type { Db } from '../db/client.ts';
 import type { ElementInstall } from '../db/queries/elements.ts';
 import {

@@ -4,24 +4,13 @@
 import type { z, ZodType } from 'zod';
 import type { BeforeFreshness, Freshness } from '#shared/schemas/common.ts';
 import { roles, type Role } from '#shared/schemas/enums.ts';
-import {
-  elementLifeQuerySchema,
-  elementLifeReportSchema,
-  forecastQuerySchema,
-  forecastReportSchema,
-  reliabilityQuerySchema,
-  reliabilityReportSchema,
-  timeToCompleteQuerySchema,
-  timeToCompleteReportSchema,
-} from '#shared/schemas/kpi.ts';
-import {
-  downtimeQuerySchema,
-  downtimeReportSchema,
-  maintenanceMixQuerySchema,
-  maintenanceMixReportSchema,
-  performanceQuerySchema,
-  performanceReportSchema,
-} from '#shared/schemas/kpi-ops.ts';
+import { elementLifeQuerySchema, elementLifeReportSchema } from '#shared/schemas/element-life.ts';
+import { forecastQuerySchema, forecastReportSchema } from '#shared/schemas/forecast.ts';
+import { reliabilityQuerySchema, reliabilityReportSchema } from '#shared/schemas/reliability.ts';
+import { timeToCompleteQuerySchema, timeToCompleteReportSchema } from '#shared/schemas/time-to-complete.ts';
+import { downtimeQuerySchema, downtimeReportSchema } from '#shared/schemas/downtime.ts';
+import { maintenanceMixQuerySchema, maintenanceMixReportSchema } from '#shared/schemas/maintenance-mix.ts';
+import { performanceQuerySchema, performanceReportSchema } from '#shared/schemas/performance.ts';
 import type { Settings } from '#shared/schemas/settings.ts';
 import type { Db } from '../db/client.ts';
 import { getDowntime } from './downtime.ts';

@@ -12,8 +12,8 @@ import {
   type PerformanceSettings,
 } from '#shared/kpi/performance.ts';
 import type { Quantity } from '#shared/schemas/enums.ts';
-import type { Provenance } from '#shared/schemas/kpi.ts';
-import { summaryNormalizedKeys, summaryStateKeys, type PerformanceQuery, type PerformanceReport } from '#shared/schemas/kpi-ops.ts';
+import type { Provenance } from '#shared/schemas/answer.ts';
+import { summaryNormalizedKeys, summaryStateKeys, type PerformanceQuery, type PerformanceReport } from '#shared/schemas/performance.ts';
 import type { Settings } from '#shared/schemas/settings.ts';
 import type { Db } from '../db/client.ts';
 import type { AssetRecord } from '../db/queries/assets.ts';

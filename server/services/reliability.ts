@@ -15,7 +15,8 @@ import {
   operationalAvailability,
 } from '#shared/kpi/reliability.ts';
 import { nullBecause, type NullReason, type Ratio } from '#shared/kpi/stats.ts';
-import type { Provenance, ReliabilityQuery, ReliabilityReport } from '#shared/schemas/kpi.ts';
+import type { Provenance } from '#shared/schemas/answer.ts';
+import type { ReliabilityQuery, ReliabilityReport } from '#shared/schemas/reliability.ts';
 import { agree, countOf } from '#shared/text.ts';
 import type { Db } from '../db/client.ts';
 import type { AssetRecord } from '../db/queries/assets.ts';

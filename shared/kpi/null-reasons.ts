@@ -1,6 +1,6 @@
 // The sentence behind each null-reason code. Kept apart from stats.ts so the client can show them
 // without loading jstat.
-import type { NullReason } from '#shared/schemas/kpi.ts';
+import type { NullReason } from '#shared/schemas/answer.ts';
 
 export const nullReasonMessages: Record<NullReason, string> = {
   'no-data': 'There is no data in the window.',

@@ -3,13 +3,14 @@
 // reason" result every undefined ratio uses instead of NaN or Infinity.
 import jstat from 'jstat';
 
-import { type NullReason, quantileMethodType7 } from '#shared/schemas/kpi.ts';
+import { type NullReason } from '#shared/schemas/answer.ts';
+import { quantileMethodType7 } from '#shared/schemas/time-to-complete.ts';
 
 /**
  * Why a KPI value is null: kebab-case codes (STYLE §4) listed with the API schemas, since answers
  * carry them; `nullReasonMessages` turns a code into a sentence.
  */
-export { nullReasons, type NullReason } from '#shared/schemas/kpi.ts';
+export { nullReasons, type NullReason } from '#shared/schemas/answer.ts';
 
 export { nullReasonMessages } from './null-reasons.ts';
 

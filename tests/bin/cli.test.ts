@@ -3,7 +3,7 @@ import { spawnSync } from 'node:child_process';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { importRecordSchema } from '#shared/schemas/imports.ts';
-import { reliabilityReportSchema } from '#shared/schemas/kpi.ts';
+import { reliabilityReportSchema } from '#shared/schemas/reliability.ts';
 import { signIn } from '#server/services/users.ts';
 import { createTestDatabase, type TestDatabase } from '../setup/db.ts';
 import { fileWith, plant } from '../server/importers/helpers.ts';

@@ -1,4 +1,4 @@
-import type { Provenance } from '#shared/schemas/kpi.ts';
+import type { Provenance } from '#shared/schemas/answer.ts';
 import { formatDateTime, formatNumber } from '../../lib/format.ts';
 
 function CodeList({ title, items, total = items.length }: { title: string; items: readonly (string | number)[]; total?: number }) {

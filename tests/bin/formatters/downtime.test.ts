@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { downtimeReport } from '#shared/kpi/downtime.ts';
-import { downtimeReportSchema } from '#shared/schemas/kpi-ops.ts';
+import { downtimeReportSchema } from '#shared/schemas/downtime.ts';
 import { formatDowntime, MAX_EVENT_ROWS } from '#bin/formatters/downtime.ts';
 import { freshAnswer } from '../../fixtures/freshness.ts';
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { elementLifeReportSchema } from '#shared/schemas/kpi.ts';
+import { elementLifeReportSchema } from '#shared/schemas/element-life.ts';
 import { formatElementLife } from '#bin/formatters/element-life.ts';
 import { freshAnswer } from '../../fixtures/freshness.ts';
 

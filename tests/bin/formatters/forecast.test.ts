@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { vesselWorkCautions } from '#shared/cautions.ts';
-import { forecastReportSchema } from '#shared/schemas/kpi.ts';
+import { forecastReportSchema } from '#shared/schemas/forecast.ts';
 import { formatForecast } from '#bin/formatters/forecast.ts';
 import { freshAnswer } from '../../fixtures/freshness.ts';
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { maintenanceMixReportSchema } from '#shared/schemas/kpi-ops.ts';
+import { maintenanceMixReportSchema } from '#shared/schemas/maintenance-mix.ts';
 import { formatMaintenanceMix } from '#bin/formatters/maintenance-mix.ts';
 import { freshAnswer } from '../../fixtures/freshness.ts';
 

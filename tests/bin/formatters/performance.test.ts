@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { maintenanceCautions } from '#shared/cautions.ts';
 import { normalizePerformance, type PerformancePoint } from '#shared/kpi/performance.ts';
-import { performanceReportSchema } from '#shared/schemas/kpi-ops.ts';
+import { performanceReportSchema } from '#shared/schemas/performance.ts';
 import { formatPerformance, TREND_DAYS } from '#bin/formatters/performance.ts';
 import { freshAnswer } from '../../fixtures/freshness.ts';
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { nullReasonMessages } from '#shared/kpi/stats.ts';
-import { reliabilityReportSchema } from '#shared/schemas/kpi.ts';
+import { reliabilityReportSchema } from '#shared/schemas/reliability.ts';
 import { formatReliability } from '#bin/formatters/reliability.ts';
 import { freshAnswer } from '../../fixtures/freshness.ts';
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { vesselWorkCautions } from '#shared/cautions.ts';
-import { quantileMethodType7, timeToCompleteReportSchema } from '#shared/schemas/kpi.ts';
+import { quantileMethodType7, timeToCompleteReportSchema } from '#shared/schemas/time-to-complete.ts';
 import { formatTimeToComplete } from '#bin/formatters/time-to-complete.ts';
 import { freshAnswer } from '../../fixtures/freshness.ts';
 

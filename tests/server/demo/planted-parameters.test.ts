@@ -8,12 +8,10 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { forecastReplacements } from '#shared/kpi/forecast.ts';
-import {
-  elementLifeQuerySchema,
-  forecastQuerySchema,
-  reliabilityQuerySchema,
-  timeToCompleteQuerySchema,
-} from '#shared/schemas/kpi.ts';
+import { elementLifeQuerySchema } from '#shared/schemas/element-life.ts';
+import { forecastQuerySchema } from '#shared/schemas/forecast.ts';
+import { reliabilityQuerySchema } from '#shared/schemas/reliability.ts';
+import { timeToCompleteQuerySchema } from '#shared/schemas/time-to-complete.ts';
 import { seedDemo, type SeedResult } from '#server/demo/seed.ts';
 import { getElementLife } from '#server/services/element-life.ts';
 import { getForecast } from '#server/services/forecast.ts';

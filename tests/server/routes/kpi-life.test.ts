@@ -3,8 +3,10 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { vesselWorkCautions } from '#shared/cautions.ts';
-import { elementLifeReportSchema, forecastReportSchema, timeToCompleteReportSchema } from '#shared/schemas/kpi.ts';
-import { maintenanceMixReportSchema } from '#shared/schemas/kpi-ops.ts';
+import { elementLifeReportSchema } from '#shared/schemas/element-life.ts';
+import { forecastReportSchema } from '#shared/schemas/forecast.ts';
+import { timeToCompleteReportSchema } from '#shared/schemas/time-to-complete.ts';
+import { maintenanceMixReportSchema } from '#shared/schemas/maintenance-mix.ts';
 import { errorBodySchema } from '#shared/schemas/error.ts';
 import { createTestApp, type TestApp } from '../../setup/app.ts';
 import { importText } from '../importers/helpers.ts';

@@ -5,8 +5,9 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { maintenanceCautions } from '#shared/cautions.ts';
 import { errorBodySchema } from '#shared/schemas/error.ts';
-import { reliabilityReportSchema } from '#shared/schemas/kpi.ts';
-import { downtimeReportSchema, performanceReportSchema } from '#shared/schemas/kpi-ops.ts';
+import { reliabilityReportSchema } from '#shared/schemas/reliability.ts';
+import { downtimeReportSchema } from '#shared/schemas/downtime.ts';
+import { performanceReportSchema } from '#shared/schemas/performance.ts';
 import { createTestApp, type TestApp } from '../../setup/app.ts';
 import { SITE, seedOpsPlant } from '../services/ops-plant.ts';
 

@@ -5,7 +5,7 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { errorBodySchema } from '#shared/schemas/error.ts';
-import { maintenanceMixReportSchema } from '#shared/schemas/kpi-ops.ts';
+import { maintenanceMixReportSchema } from '#shared/schemas/maintenance-mix.ts';
 import { openWorkOrdersSchema } from '#shared/schemas/work-orders.ts';
 import { createTestApp, type TestApp } from '../../setup/app.ts';
 import { importText } from '../importers/helpers.ts';

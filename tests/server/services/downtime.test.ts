@@ -3,7 +3,7 @@
 // 0.85 per m³ (shared/schemas/settings.ts); Pareto shares are hours / total hours (common practice).
 import { beforeFreshnessSchema } from '#shared/schemas/common.ts';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { downtimeQuerySchema, downtimeReportSchema } from '#shared/schemas/kpi-ops.ts';
+import { downtimeQuerySchema, downtimeReportSchema } from '#shared/schemas/downtime.ts';
 import { getDowntime } from '#server/services/downtime.ts';
 import { updateSettings } from '#server/services/settings.ts';
 import { createTestDatabase, type TestDatabase } from '../../setup/db.ts';

@@ -3,7 +3,7 @@
 import { beforeFreshnessSchema, type BeforeFreshness } from '#shared/schemas/common.ts';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { fitWeibull } from '#shared/kpi/element-life.ts';
-import { elementLifeQuerySchema, elementLifeReportSchema, type ElementLifeReport } from '#shared/schemas/kpi.ts';
+import { elementLifeQuerySchema, elementLifeReportSchema, type ElementLifeReport } from '#shared/schemas/element-life.ts';
 import { HttpError } from '#server/errors.ts';
 import { getElementLife } from '#server/services/element-life.ts';
 import { createTestDatabase, type TestDatabase } from '../../setup/db.ts';

@@ -5,7 +5,7 @@ import { beforeFreshnessSchema } from '#shared/schemas/common.ts';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { vesselWorkCautions } from '#shared/cautions.ts';
 import { fitWeibull } from '#shared/kpi/element-life.ts';
-import { forecastQuerySchema, forecastReportSchema } from '#shared/schemas/kpi.ts';
+import { forecastQuerySchema, forecastReportSchema } from '#shared/schemas/forecast.ts';
 import { getForecast, type ForecastAnswer } from '#server/services/forecast.ts';
 import { createTestDatabase, type TestDatabase } from '../../setup/db.ts';
 import { importText } from '../importers/helpers.ts';

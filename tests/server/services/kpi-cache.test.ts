@@ -1,7 +1,7 @@
 import { gunzipSync } from 'node:zlib';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { reliabilityQuerySchema, reliabilityReportSchema } from '#shared/schemas/kpi.ts';
+import { reliabilityQuerySchema, reliabilityReportSchema } from '#shared/schemas/reliability.ts';
 import { dataVersionAndSettings } from '#server/db/queries/data-version.ts';
 import { KpiCache } from '#server/services/kpi-cache.ts';
 import { KpiWarmer } from '#server/services/kpi-warmer.ts';

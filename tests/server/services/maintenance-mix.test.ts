@@ -2,7 +2,7 @@
 // backlog and cost per m³ of permeate produced from hourly rollups, all worked by hand.
 import { beforeFreshnessSchema, type BeforeFreshness } from '#shared/schemas/common.ts';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { maintenanceMixQuerySchema, maintenanceMixReportSchema, type MaintenanceMixReport } from '#shared/schemas/kpi-ops.ts';
+import { maintenanceMixQuerySchema, maintenanceMixReportSchema, type MaintenanceMixReport } from '#shared/schemas/maintenance-mix.ts';
 import { refresh } from '#server/jobs/refresh.ts';
 import { getMaintenanceMix } from '#server/services/maintenance-mix.ts';
 import { updateSettings } from '#server/services/settings.ts';

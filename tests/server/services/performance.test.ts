@@ -6,7 +6,7 @@
 import { beforeFreshnessSchema } from '#shared/schemas/common.ts';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { maintenanceCautions } from '#shared/cautions.ts';
-import { performanceQuerySchema, performanceReportSchema } from '#shared/schemas/kpi-ops.ts';
+import { performanceQuerySchema, performanceReportSchema } from '#shared/schemas/performance.ts';
 import { cleaningDescription, getPerformance } from '#server/services/performance.ts';
 import { updateSettings } from '#server/services/settings.ts';
 import { createTestDatabase, type TestDatabase } from '../../setup/db.ts';

@@ -5,7 +5,7 @@
 import { beforeFreshnessSchema } from '#shared/schemas/common.ts';
 import jstat from 'jstat';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { reliabilityQuerySchema, reliabilityReportSchema } from '#shared/schemas/kpi.ts';
+import { reliabilityQuerySchema, reliabilityReportSchema } from '#shared/schemas/reliability.ts';
 import { HttpError } from '#server/errors.ts';
 import { getReliability } from '#server/services/reliability.ts';
 import { createTestDatabase, type TestDatabase } from '../../setup/db.ts';

@@ -3,7 +3,7 @@
 import { beforeFreshnessSchema } from '#shared/schemas/common.ts';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { vesselWorkCautions } from '#shared/cautions.ts';
-import { quantileMethodType7, timeToCompleteQuerySchema, timeToCompleteReportSchema } from '#shared/schemas/kpi.ts';
+import { quantileMethodType7, timeToCompleteQuerySchema, timeToCompleteReportSchema } from '#shared/schemas/time-to-complete.ts';
 import { getTimeToComplete, procedureOf, type TimeToCompleteAnswer } from '#server/services/time-to-complete.ts';
 import { refresh } from '#server/jobs/refresh.ts';
 import { createTestDatabase, type TestDatabase } from '../../setup/db.ts';

@@ -9,7 +9,7 @@ import {
   type DowntimeWorkOrder,
 } from '#shared/kpi/downtime.ts';
 import type { RunStatusSample } from '#shared/kpi/operating-time.ts';
-import { downtimeQuerySchema, downtimeReportSchema } from '#shared/schemas/kpi-ops.ts';
+import { downtimeQuerySchema, downtimeReportSchema } from '#shared/schemas/downtime.ts';
 
 // A hand-worked invented plant. Tree: RO1 (train) → RO1-S1 (stage) → V-101 (vessel); P-101 (pump) under RO1;
 // RO2 a second train. Window 1–8 May 2024, UTC.

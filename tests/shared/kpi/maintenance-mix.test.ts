@@ -1,7 +1,7 @@
 import { beforeFreshnessSchema } from '#shared/schemas/common.ts';
 import { describe, expect, it } from 'vitest';
 import { maintenanceMix, pmComplianceDefinition, type MaintenanceMixInput, type MixWorkOrder } from '#shared/kpi/maintenance-mix.ts';
-import { maintenanceMixQuerySchema, maintenanceMixReportSchema } from '#shared/schemas/kpi-ops.ts';
+import { maintenanceMixQuerySchema, maintenanceMixReportSchema } from '#shared/schemas/maintenance-mix.ts';
 
 // Hand-worked invented work orders; window Q1 2024 = [1 Jan, 1 Apr), UTC.
 const t = (iso: string) => new Date(`${iso}T00:00:00Z`);

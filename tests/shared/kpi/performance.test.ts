@@ -26,7 +26,7 @@ import {
   type PerformancePoint,
   type PerformanceSettings,
 } from '#shared/kpi/performance.ts';
-import { performanceQuerySchema, performanceStageSchema } from '#shared/schemas/kpi-ops.ts';
+import { performanceQuerySchema, performanceStageSchema } from '#shared/schemas/performance.ts';
 
 /** |actual − expected| ≤ rel·|expected|, with a readable failure message. */
 function expectRel(actual: number | null | undefined, expected: number, rel: number, label = ''): void {

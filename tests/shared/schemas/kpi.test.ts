@@ -5,16 +5,10 @@ import { mtbfWithBounds, mttrHours, inherentAvailability } from '#shared/kpi/rel
 import { nullReasonMessages, nullReasons } from '#shared/kpi/stats.ts';
 import { timeToComplete } from '#shared/kpi/time-to-complete.ts';
 import { windowQuerySchema } from '#shared/schemas/common.ts';
-import {
-  elementLifeQuerySchema,
-  elementLifeReportSchema,
-  forecastQuerySchema,
-  forecastReportSchema,
-  reliabilityQuerySchema,
-  reliabilityReportSchema,
-  timeToCompleteQuerySchema,
-  timeToCompleteReportSchema,
-} from '#shared/schemas/kpi.ts';
+import { elementLifeQuerySchema, elementLifeReportSchema } from '#shared/schemas/element-life.ts';
+import { forecastQuerySchema, forecastReportSchema } from '#shared/schemas/forecast.ts';
+import { reliabilityQuerySchema, reliabilityReportSchema } from '#shared/schemas/reliability.ts';
+import { timeToCompleteQuerySchema, timeToCompleteReportSchema } from '#shared/schemas/time-to-complete.ts';
 import { freshAnswer } from '../../fixtures/freshness.ts';
 
 

@@ -1,5 +1,5 @@
 import { queryOptions, useSuspenseQuery } from '@tanstack/react-query';
-import { downtimeReportSchema, type DowntimeReport } from '#shared/schemas/kpi-ops.ts';
+import { downtimeReportSchema, type DowntimeReport } from '#shared/schemas/downtime.ts';
 import { apiRequest } from '../../../lib/api-client.ts';
 import { toSearch, windowQuery, type KpiWindow } from '../../../lib/kpi-window.ts';
 

@@ -1,5 +1,5 @@
 import { lazy } from 'react';
-import type { DowntimeReport } from '#shared/schemas/kpi-ops.ts';
+import type { DowntimeReport } from '#shared/schemas/downtime.ts';
 import { ChartFrame } from '../../../components/charts/chart-frame.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { NotesDetails } from '../../../components/ui/notes-details.tsx';

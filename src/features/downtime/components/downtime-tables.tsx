@@ -1,4 +1,4 @@
-import type { DowntimeReport } from '#shared/schemas/kpi-ops.ts';
+import type { DowntimeReport } from '#shared/schemas/downtime.ts';
 import { Badge } from '../../../components/ui/badge.tsx';
 import { Table, type Column } from '../../../components/ui/table.tsx';
 import { formatDateTime, formatHours, formatMoney, formatNumber, formatVolume } from '../../../lib/format.ts';

@@ -1,5 +1,5 @@
 import { queryOptions, useSuspenseQuery } from '@tanstack/react-query';
-import { elementLifeReportSchema, type elementGroupByValues, type ElementLifeReport } from '#shared/schemas/kpi.ts';
+import { elementLifeReportSchema, type elementGroupByValues, type ElementLifeReport } from '#shared/schemas/element-life.ts';
 import { apiRequest } from '../../../lib/api-client.ts';
 import { toSearch, windowQuery, type KpiWindow } from '../../../lib/kpi-window.ts';
 

@@ -1,5 +1,5 @@
 import { queryOptions, useSuspenseQuery } from '@tanstack/react-query';
-import { forecastReportSchema, type ForecastReport } from '#shared/schemas/kpi.ts';
+import { forecastReportSchema, type ForecastReport } from '#shared/schemas/forecast.ts';
 import { apiRequest } from '../../../lib/api-client.ts';
 import { toSearch, windowQuery } from '../../../lib/kpi-window.ts';
 import { elementLifeKeys, type ElementLifeParams } from './get-element-life.ts';

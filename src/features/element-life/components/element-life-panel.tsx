@@ -1,5 +1,5 @@
 import { lazy } from 'react';
-import { elementGroupByValues } from '#shared/schemas/kpi.ts';
+import { elementGroupByValues } from '#shared/schemas/element-life.ts';
 import { ChartFrame } from '../../../components/charts/chart-frame.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { NotesDetails } from '../../../components/ui/notes-details.tsx';

@@ -1,6 +1,6 @@
 import { lazy } from 'react';
 import { vesselWorkCautions } from '#shared/cautions.ts';
-import type { ForecastReport } from '#shared/schemas/kpi.ts';
+import type { ForecastReport } from '#shared/schemas/forecast.ts';
 import { ChartFrame } from '../../../components/charts/chart-frame.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { NotesDetails } from '../../../components/ui/notes-details.tsx';

@@ -1,4 +1,4 @@
-import type { ElementLifeReport } from '#shared/schemas/kpi.ts';
+import type { ElementLifeReport } from '#shared/schemas/element-life.ts';
 import { Table, type Column } from '../../../components/ui/table.tsx';
 import { formatDays, formatNumber } from '../../../lib/format.ts';
 import { nullReasonText } from '../../../lib/null-reason.ts';

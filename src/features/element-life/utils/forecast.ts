@@ -1,4 +1,4 @@
-import type { ForecastReport } from '#shared/schemas/kpi.ts';
+import type { ForecastReport } from '#shared/schemas/forecast.ts';
 
 type Month = ForecastReport['totals'][number];
 

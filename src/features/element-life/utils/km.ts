@@ -1,4 +1,4 @@
-import type { ElementLifeReport } from '#shared/schemas/kpi.ts';
+import type { ElementLifeReport } from '#shared/schemas/element-life.ts';
 
 type KmPoint = ElementLifeReport['groups'][number]['km'][number];
 

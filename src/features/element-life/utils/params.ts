@@ -1,4 +1,4 @@
-import { elementGroupByValues } from '#shared/schemas/kpi.ts';
+import { elementGroupByValues } from '#shared/schemas/element-life.ts';
 import { readChoice, readKpiWindow } from '../../../lib/kpi-window.ts';
 import type { ElementLifeParams } from '../api/get-element-life.ts';
 

@@ -1,5 +1,5 @@
 import { queryOptions, useSuspenseQuery } from '@tanstack/react-query';
-import { maintenanceMixReportSchema, type MaintenanceMixReport } from '#shared/schemas/kpi-ops.ts';
+import { maintenanceMixReportSchema, type MaintenanceMixReport } from '#shared/schemas/maintenance-mix.ts';
 import { apiRequest } from '../../../lib/api-client.ts';
 import { toSearch, windowQuery, type KpiWindow } from '../../../lib/kpi-window.ts';
 

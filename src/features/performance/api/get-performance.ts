@@ -1,5 +1,5 @@
 import { queryOptions, useSuspenseQuery } from '@tanstack/react-query';
-import { performanceReportSchema, type PerformanceReport } from '#shared/schemas/kpi-ops.ts';
+import { performanceReportSchema, type PerformanceReport } from '#shared/schemas/performance.ts';
 import { apiRequest } from '../../../lib/api-client.ts';
 import { toSearch, windowQuery, type KpiWindow } from '../../../lib/kpi-window.ts';
 

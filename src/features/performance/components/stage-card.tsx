@@ -1,5 +1,5 @@
 import { lazy } from 'react';
-import type { PerformanceReport } from '#shared/schemas/kpi-ops.ts';
+import type { PerformanceReport } from '#shared/schemas/performance.ts';
 import { ChartFrame } from '../../../components/charts/chart-frame.tsx';
 import { seriesColors } from '../../../components/charts/chart-theme.ts';
 import { Badge } from '../../../components/ui/badge.tsx';

@@ -1,4 +1,4 @@
-import type { PerformanceReport } from '#shared/schemas/kpi-ops.ts';
+import type { PerformanceReport } from '#shared/schemas/performance.ts';
 
 export type PerformanceAlert = PerformanceReport['stages'][number]['alerts'][number];
 

@@ -1,5 +1,5 @@
 import { queryOptions, useSuspenseQuery } from '@tanstack/react-query';
-import { reliabilityReportSchema, type reliabilityGroupByValues, type ReliabilityReport } from '#shared/schemas/kpi.ts';
+import { reliabilityReportSchema, type reliabilityGroupByValues, type ReliabilityReport } from '#shared/schemas/reliability.ts';
 import { apiRequest } from '../../../lib/api-client.ts';
 import { toSearch, windowQuery, type KpiWindow } from '../../../lib/kpi-window.ts';
 

@@ -1,4 +1,4 @@
-import type { ReliabilityReport } from '#shared/schemas/kpi.ts';
+import type { ReliabilityReport } from '#shared/schemas/reliability.ts';
 import { Table, type Column } from '../../../components/ui/table.tsx';
 import { formatHours, formatNumber, formatShare } from '../../../lib/format.ts';
 import { nullReasonText } from '../../../lib/null-reason.ts';

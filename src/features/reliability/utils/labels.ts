@@ -1,4 +1,4 @@
-import type { ReliabilityReport } from '#shared/schemas/kpi.ts';
+import type { ReliabilityReport } from '#shared/schemas/reliability.ts';
 
 export type ReliabilityFigures = Pick<
   ReliabilityReport,

@@ -1,4 +1,4 @@
-import { reliabilityGroupByValues } from '#shared/schemas/kpi.ts';
+import { reliabilityGroupByValues } from '#shared/schemas/reliability.ts';
 import { readChoice, readKpiWindow } from '../../../lib/kpi-window.ts';
 import type { ReliabilityParams } from '../api/get-reliability.ts';
 

@@ -1,5 +1,5 @@
 import { queryOptions, useSuspenseQuery } from '@tanstack/react-query';
-import { timeToCompleteReportSchema, type TimeToCompleteReport } from '#shared/schemas/kpi.ts';
+import { timeToCompleteReportSchema, type TimeToCompleteReport } from '#shared/schemas/time-to-complete.ts';
 import { apiRequest } from '../../../lib/api-client.ts';
 import { toSearch, windowQuery, type KpiWindow } from '../../../lib/kpi-window.ts';
 

@@ -1,4 +1,4 @@
-import type { TimeToCompleteReport } from '#shared/schemas/kpi.ts';
+import type { TimeToCompleteReport } from '#shared/schemas/time-to-complete.ts';
 import { Table, type Column } from '../../../components/ui/table.tsx';
 import { formatHours, formatNumber } from '../../../lib/format.ts';
 import { nullReasonText } from '../../../lib/null-reason.ts';

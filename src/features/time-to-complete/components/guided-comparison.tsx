@@ -1,4 +1,4 @@
-import type { TimeToCompleteReport } from '#shared/schemas/kpi.ts';
+import type { TimeToCompleteReport } from '#shared/schemas/time-to-complete.ts';
 import { Card } from '../../../components/ui/card.tsx';
 import { formatHours, formatHoursOrMinutes, formatNumber } from '../../../lib/format.ts';
 

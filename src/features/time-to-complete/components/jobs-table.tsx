@@ -1,4 +1,4 @@
-import type { TimeToCompleteReport } from '#shared/schemas/kpi.ts';
+import type { TimeToCompleteReport } from '#shared/schemas/time-to-complete.ts';
 import { Badge } from '../../../components/ui/badge.tsx';
 import { Table, type Column } from '../../../components/ui/table.tsx';
 import { formatDateTime, formatHours, formatNumber } from '../../../lib/format.ts';
