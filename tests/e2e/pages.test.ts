@@ -241,6 +241,7 @@ describe('the built client in a browser', () => {
     await fillSignIn(s.page, 'engineer@test.example', rolePasswords.engineer);
     await heading(s.page, 'Imports');
     await s.page.getByText('Nothing has been imported yet.').waitFor();
+    expect(new URL(s.page.url()).pathname).toBe('/imports');
     await closeSession(s);
   });
 
@@ -248,6 +249,9 @@ describe('the built client in a browser', () => {
     const s = await openSession();
     await signIn(s, 'engineer', '/no-such-page');
     await s.page.getByText('There is no page at this address').waitFor();
+    // Inside the shell: the navigation is still there to leave by.
+    expect(await s.page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Dashboard' }).isVisible()).toBe(true);
+    expect(new URL(s.page.url()).pathname).toBe('/no-such-page');
     await shot(s.page, 'not-found');
     await closeSession(s);
   });
