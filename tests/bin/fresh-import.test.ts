@@ -12,7 +12,7 @@ import { maintenanceMixReportSchema } from '#shared/schemas/maintenance-mix.ts';
 import { performanceReportSchema } from '#shared/schemas/performance.ts';
 import { createTestDatabase, type TestDatabase } from '../setup/db.ts';
 import { fileWith } from '../server/importers/helpers.ts';
-import { assetsCsv, elementsCsv, historianCsv, tagsCsv, workOrdersCsv } from '../server/services/ops-plant.ts';
+import { assetsCsv, elementsCsv, historianCsv, tagsCsv, workOrdersCsv } from '../fixtures/ops-plant.ts';
 
 const osmia = join(import.meta.dirname, '..', '..', 'bin', 'osmia');
 let t: TestDatabase;

@@ -1,5 +1,5 @@
 // GET /api/kpi/reliability, downtime and performance over HTTP: status, bodies parsed with the shared schemas,
-// the hand-worked numbers of the invented plant of tests/server/services/ops-plant.ts, errors and roles.
+// the hand-worked numbers of the invented plant of tests/fixtures/ops-plant.ts, errors and roles.
 import jstat from 'jstat';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -9,7 +9,7 @@ import { reliabilityReportSchema } from '#shared/schemas/reliability.ts';
 import { downtimeReportSchema } from '#shared/schemas/downtime.ts';
 import { performanceReportSchema } from '#shared/schemas/performance.ts';
 import { createTestApp, type TestApp } from '../../setup/app.ts';
-import { SITE, seedOpsPlant } from '../services/ops-plant.ts';
+import { SITE, seedOpsPlant } from '../../fixtures/ops-plant.ts';
 
 let t: TestApp;
 beforeAll(async () => {

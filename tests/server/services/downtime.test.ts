@@ -7,7 +7,7 @@ import { downtimeQuerySchema, downtimeReportSchema } from '#shared/schemas/downt
 import { getDowntime } from '#server/services/downtime.ts';
 import { updateSettings } from '#server/services/settings.ts';
 import { createTestDatabase, type TestDatabase } from '../../setup/db.ts';
-import { SITE, seedEmptySite, seedOpsPlant } from './ops-plant.ts';
+import { SITE, seedEmptySite, seedOpsPlant } from '../../fixtures/ops-plant.ts';
 import { getSettings } from '#server/services/settings.ts';
 
 let t: TestDatabase;

@@ -8,7 +8,7 @@ import { kpiCatalog } from '#server/services/kpi-catalog.ts';
 import { inlineRefreshTagHours } from '#server/services/freshness.ts';
 import { refresh } from '#server/jobs/refresh.ts';
 import { createTestApp, type TestApp } from '../../setup/app.ts';
-import { assetsCsv, elementsCsv, historianCsv, tagsCsv, workOrdersCsv } from './ops-plant.ts';
+import { assetsCsv, elementsCsv, historianCsv, tagsCsv, workOrdersCsv } from '../../fixtures/ops-plant.ts';
 
 let t: TestApp;
 beforeAll(async () => {

@@ -10,7 +10,7 @@ import { performanceQuerySchema, performanceReportSchema } from '#shared/schemas
 import { cleaningDescription, getPerformance } from '#server/services/performance.ts';
 import { updateSettings } from '#server/services/settings.ts';
 import { createTestDatabase, type TestDatabase } from '../../setup/db.ts';
-import { SITE, seedEmptySite, seedOpsPlant, stageBase } from './ops-plant.ts';
+import { SITE, seedEmptySite, seedOpsPlant, stageBase } from '../../fixtures/ops-plant.ts';
 import { getSettings } from '#server/services/settings.ts';
 
 let t: TestDatabase;

@@ -9,7 +9,7 @@ import { reliabilityQuerySchema, reliabilityReportSchema } from '#shared/schemas
 import { HttpError } from '#server/errors.ts';
 import { getReliability } from '#server/services/reliability.ts';
 import { createTestDatabase, type TestDatabase } from '../../setup/db.ts';
-import { SITE, seedEmptySite, seedOpsPlant } from './ops-plant.ts';
+import { SITE, seedEmptySite, seedOpsPlant } from '../../fixtures/ops-plant.ts';
 
 let t: TestDatabase;
 beforeAll(async () => {
