@@ -5,6 +5,7 @@
 // inspection work order on the asset or one below it; cause = failure code of the corrective work order
 // (same scope) whose out-of-service window overlaps it most. Everything is in UTC instants.
 
+import type { DowntimeEvent, DowntimePlantTotal, DowntimeTotal, ParetoRow } from '#shared/schemas/downtime.ts';
 import type { WorkOrderStatus, WorkOrderType } from '#shared/schemas/enums.ts';
 import {
   hoursBetween,
@@ -74,65 +75,8 @@ export interface StopSpan extends MsInterval {
   clippedAtEnd: boolean;
 }
 
-export interface DowntimeEvent {
-  asset: string;
-  from: string;
-  to: string;
-  hours: number;
-  planned: boolean;
-  cause: string;
-  lostVolumeM3: number | null;
-  cost: number | null;
-  tag: string;
-  clippedAtStart: boolean;
-  clippedAtEnd: boolean;
-  /** Preventive or inspection work orders whose out-of-service window overlaps the stop. */
-  plannedBy: string[];
-  /** The corrective work order the cause comes from; null when none overlaps. */
-  causeWorkOrder: string | null;
-  causeOverlapHours: number;
-  /**
-   * Assets below this one whose own run-status tags read stopped during this stop: they stopped with it
-   * and are counted here, once, not as events of their own.
-   */
-  alsoStopped: string[];
-}
-
-export interface DowntimeTotal {
-  asset: string;
-  events: number;
-  hours: number;
-  plannedHours: number;
-  unplannedHours: number;
-  lostVolumeM3: number | null;
-  cost: number | null;
-  tag: string;
-  ratedPermeateM3h: number | null;
-}
-
-export interface ParetoRow {
-  key: string;
-  events: number;
-  hours: number;
-  plannedHours: number;
-  unplannedHours: number;
-  lostVolumeM3: number | null;
-  cost: number | null;
-  /** Share of all stop hours, 0–1. */
-  share: number;
-  /** Running sum of `share` down the sorted table, 0–1. */
-  cumulativeShare: number;
-}
-
-/** The whole answer in one row: every event once. Totals by asset and both Pareto tables add up to it. */
-export interface DowntimePlantTotal {
-  events: number;
-  hours: number;
-  plannedHours: number;
-  unplannedHours: number;
-  lostVolumeM3: number | null;
-  cost: number | null;
-}
+// The answer's parts are the types of its schema (shared/schemas/downtime.ts), not interfaces beside it.
+export type { DowntimeEvent, DowntimePlantTotal, DowntimeTotal, ParetoRow };
 
 export interface DowntimeResult {
   from: string;

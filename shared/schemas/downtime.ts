@@ -30,28 +30,30 @@ export const downtimeEventSchema = z.object({
   alsoStopped: z.array(z.string()),
 });
 
-/** docs/design.md §7 keys: asset, events, hours, plannedHours, unplannedHours, lostVolumeM3, cost. */
-export const downtimeTotalSchema = z.object({
-  asset: z.string(),
+/** What a set of stops adds up to: count, hours (planned and not), lost volume and its cost (null when any stop's is). */
+const stopSumsShape = {
   events: count,
   hours,
   plannedHours: hours,
   unplannedHours: hours,
   lostVolumeM3: m3.nullable(),
   cost: money.nullable(),
+};
+
+/** docs/design.md §7 keys: asset, events, hours, plannedHours, unplannedHours, lostVolumeM3, cost. */
+export const downtimeTotalSchema = z.object({
+  asset: z.string(),
+  ...stopSumsShape,
   tag: z.string(),
   ratedPermeateM3h: z.number().nonnegative().nullable(),
 });
 
 export const paretoRowSchema = z.object({
   key: z.string(),
-  events: count,
-  hours,
-  plannedHours: hours,
-  unplannedHours: hours,
-  lostVolumeM3: m3.nullable(),
-  cost: money.nullable(),
+  ...stopSumsShape,
+  /** Share of all stop hours, 0–1. */
   share,
+  /** Running sum of `share` down the sorted table, 0–1. */
   cumulativeShare: share,
 });
 
@@ -63,14 +65,7 @@ export const downtimeReportSchema = z.object({
   events: z.array(downtimeEventSchema),
   totals: z.array(downtimeTotalSchema),
   /** Every event once: the totals by asset and both Pareto tables add up to these hours, volume and cost. */
-  plant: z.object({
-    events: count,
-    hours,
-    plannedHours: hours,
-    unplannedHours: hours,
-    lostVolumeM3: m3.nullable(),
-    cost: money.nullable(),
-  }),
+  plant: z.object(stopSumsShape),
   paretoByCause: z.array(paretoRowSchema),
   paretoByAsset: z.array(paretoRowSchema),
   waterValuePerM3: money.nullable(),
@@ -79,3 +74,7 @@ export const downtimeReportSchema = z.object({
   provenance: provenanceSchema.optional(),
 });
 export type DowntimeReport = z.infer<typeof downtimeReportSchema>;
+export type DowntimeEvent = z.infer<typeof downtimeEventSchema>;
+export type DowntimeTotal = z.infer<typeof downtimeTotalSchema>;
+export type ParetoRow = z.infer<typeof paretoRowSchema>;
+export type DowntimePlantTotal = DowntimeReport['plant'];
