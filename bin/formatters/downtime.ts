@@ -12,7 +12,7 @@ const percent = (share: number) => `${formatNumber(share * 100, 1)} %`;
  * Pareto tables by cause and by asset, then notes. Hours in h, lost volume in m³, cost in the plant's currency.
  */
 export function formatDowntime(
-  report: Omit<DowntimeReport, 'totals'> & { totals: (DowntimeReport['totals'][number] & { ratedPermeateFrom?: string | null })[] },
+  report: DowntimeReport,
 ): string {
   const currency = report.currency ?? '';
   const lines: string[] = [

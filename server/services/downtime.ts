@@ -14,13 +14,9 @@ import { capped } from './provenance.ts';
 import { loadRunStatusHistories, ratedPermeate } from './run-status.ts';
 import { resolveScope } from './scope.ts';
 
-type DowntimeTotal = DowntimeReport['totals'][number];
+/** The downtime answer as the service computes it: exactly the schema's type, before freshness. */
+export type DowntimeAnswer = BeforeFreshness<DowntimeReport>;
 
-/** Downtime report with the asset whose rating gave each total's lost volume. */
-export type DowntimeAnswer = Omit<BeforeFreshness<DowntimeReport>, 'totals' | 'provenance'> & {
-  totals: (DowntimeTotal & { ratedPermeateFrom: string | null })[];
-  provenance: Provenance;
-};
 
 /**
  * Downtime over [from, to) for the asset asked about and everything below it (the whole site without one).
@@ -74,12 +70,10 @@ export async function getDowntime(db: Db, query: DowntimeQuery, settings: Settin
 
   const { histories, notes: historyNotes } = await loadRunStatusHistories(db, [...runTags.values()], from, to);
   notes.push(...historyNotes);
-  const rated = new Map<number, { m3h: number; from: string } | null>();
   const inputs: DowntimeAssetInput[] = [];
   for (const [assetId, tag] of runTags) {
     const asset = byId.get(assetId)!;
     const rating = ratedPermeate(assets, asset);
-    rated.set(assetId, rating);
     if (rating && rating.from !== asset.code) {
       notes.push(`${asset.code} has no rated permeate flow: the ${rating.m3h} m³/h of ${rating.from} is used for its lost volume.`);
     }
@@ -87,6 +81,7 @@ export async function getDowntime(db: Db, query: DowntimeQuery, settings: Settin
     inputs.push({
       asset: asset.code,
       ratedPermeateM3h: rating?.m3h ?? null,
+      ratedPermeateFrom: rating?.from ?? null,
       runStatusTag: tag.name,
       samples: history.samples,
       priorSample: history.priorSample,
@@ -112,7 +107,6 @@ export async function getDowntime(db: Db, query: DowntimeQuery, settings: Settin
     settings: { waterValuePerM3: settings.waterValuePerM3 },
   });
 
-  const codeToId = new Map(assets.map((a) => [a.code, a.id]));
   const used = new Set(result.events.flatMap((e) => [...e.plannedBy, ...(e.causeWorkOrder ? [e.causeWorkOrder] : [])]));
   const usedOrders = orders.filter((wo) => used.has(wo.woNumber));
   const provenanceNotes: string[] = [];
@@ -140,7 +134,7 @@ export async function getDowntime(db: Db, query: DowntimeQuery, settings: Settin
     from: result.from,
     to: result.to,
     events: result.events,
-    totals: result.totals.map((t) => ({ ...t, ratedPermeateFrom: rated.get(codeToId.get(t.asset)!)?.from ?? null })),
+    totals: result.totals,
     plant: result.plant,
     paretoByCause: result.paretoByCause,
     paretoByAsset: result.paretoByAsset,

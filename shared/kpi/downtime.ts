@@ -25,6 +25,8 @@ export interface DowntimeAssetInput {
   asset: string;
   /** Rated permeate flow in m³/h; null when the register has none (lost volume is then null). */
   ratedPermeateM3h: number | null;
+  /** The asset whose rating that is: this one, or the nearest above it with one; null without a rating. */
+  ratedPermeateFrom?: string | null;
   runStatusTag: string;
   /** Good-quality run-status samples (1 running, 0 stopped). */
   samples: readonly RunStatusSample[];
@@ -382,6 +384,7 @@ export function downtimeReport(input: DowntimeInput): DowntimeResult {
       ...sumEvents(assetEvents),
       tag: asset.runStatusTag,
       ratedPermeateM3h: asset.ratedPermeateM3h,
+      ratedPermeateFrom: asset.ratedPermeateM3h === null ? null : (asset.ratedPermeateFrom ?? asset.asset),
     });
     events.push(...assetEvents);
   }

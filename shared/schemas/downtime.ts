@@ -46,6 +46,8 @@ export const downtimeTotalSchema = z.object({
   ...stopSumsShape,
   tag: z.string(),
   ratedPermeateM3h: z.number().nonnegative().nullable(),
+  /** The asset whose rated permeate flow priced this asset's lost volume (itself or the nearest above it with one). */
+  ratedPermeateFrom: z.string().nullable(),
 });
 
 export const paretoRowSchema = z.object({

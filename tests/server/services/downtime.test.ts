@@ -47,8 +47,8 @@ describe('stop events of the whole site', () => {
       { asset: 'TR2-P1', events: 2, hours: 14, plannedHours: 0, unplannedHours: 14, lostVolumeM3: 700, cost: expect.closeTo(595, 9), tag: 'TR2-P1.RUN', ratedPermeateM3h: 50, ratedPermeateFrom: 'TR2' },
     ]);
     expect(report.notes).toContain('TR2-P1 has no rated permeate flow: the 50 m³/h of TR2 is used for its lost volume.');
-    expect(report.provenance.workOrders).toEqual(['WO-1', 'WO-4', 'WO-6']);
-    expect(report.provenance.tags).toEqual(['TR1.RUN', 'TR2-P1.RUN']);
+    expect(report.provenance!.workOrders).toEqual(['WO-1', 'WO-4', 'WO-6']);
+    expect(report.provenance!.tags).toEqual(['TR1.RUN', 'TR2-P1.RUN']);
   });
 
   it('ranks causes and assets by stop hours (Pareto)', async () => {

@@ -230,7 +230,7 @@ describe('stop spans and edge cases', () => {
     const report = downtimeReport({ ...input, assets: [{ asset: 'RO2', ratedPermeateM3h: 40, runStatusTag: 'RO2.RUN', samples: [] }] });
     expect(report.events).toEqual([]);
     expect(report.totals).toEqual([
-      { asset: 'RO2', events: 0, hours: 0, plannedHours: 0, unplannedHours: 0, lostVolumeM3: 0, cost: 0, tag: 'RO2.RUN', ratedPermeateM3h: 40 },
+      { asset: 'RO2', events: 0, hours: 0, plannedHours: 0, unplannedHours: 0, lostVolumeM3: 0, cost: 0, tag: 'RO2.RUN', ratedPermeateM3h: 40, ratedPermeateFrom: 'RO2' },
     ]);
     expect(report.paretoByCause).toEqual([]);
     expect(report.paretoByAsset).toEqual([]);
