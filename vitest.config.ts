@@ -1,6 +1,6 @@
 import { defineConfig } from 'vitest/config';
 
-// Two projects: `shared` is pure code (no database, runs in a second); `server` needs PostgreSQL,
+// Three projects: `shared` and `client` are pure code (no database, they run in a second); `server` needs PostgreSQL,
 // which tests/setup/global-setup.ts starts (a throwaway cluster, or DATABASE_URL) and migrates once.
 export default defineConfig({
   test: {
@@ -9,6 +9,14 @@ export default defineConfig({
         test: {
           name: 'shared',
           include: ['tests/shared/**/*.test.ts'],
+          environment: 'node',
+        },
+      },
+      {
+        test: {
+          // The client's logic that needs no browser (address parsing, formatting).
+          name: 'client',
+          include: ['tests/src/**/*.test.ts'],
           environment: 'node',
         },
       },

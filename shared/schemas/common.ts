@@ -59,7 +59,10 @@ export const timeZoneSchema = trimmedLineSchema
  * the server resolves a bare date or a naive date-time in the site's time zone (docs/design.md §6), which a
  * schema shared with the browser cannot know.
  */
-export const isoDateOrDateTimeSchema = z.union([z.iso.date(), z.iso.datetime({ offset: true, local: true })], {
+/** An ISO 8601 calendar date, `2025-03-01`: what the pages' date pickers and addresses hold. */
+export const isoDateSchema = z.iso.date();
+
+export const isoDateOrDateTimeSchema = z.union([isoDateSchema, z.iso.datetime({ offset: true, local: true })], {
   error: 'Give an ISO 8601 date (2025-03-01) or date-time (2025-03-01T06:00:00+01:00).',
 });
 

@@ -1,5 +1,6 @@
 import { useCallback, useMemo } from 'react';
 import { useSearchParams } from 'react-router-dom';
+import { confidenceSchema, isoDateSchema } from '#shared/schemas/common.ts';
 
 // The window and filters of the KPI pages live in the address (?from=2026-01-01&to=2026-07-01&asset=T1),
 // so a view can be bookmarked or sent to a colleague and opens the same figures. Loaders read them
@@ -19,7 +20,6 @@ export interface KpiWindow {
 
 export const windowParams = ['site', 'asset', 'from', 'to', 'confidence'] as const;
 
-const isoDay = /^\d{4}-\d{2}-\d{2}$/;
 
 function text(params: URLSearchParams, name: string): string | undefined {
   const value = params.get(name)?.trim();
@@ -27,19 +27,22 @@ function text(params: URLSearchParams, name: string): string | undefined {
 }
 
 /**
- * The window in a URL's search parameters. A date that is not YYYY-MM-DD and a confidence outside
- * (0, 1) are ignored rather than sent: the address may have been typed by hand.
+ * The window in a URL's search parameters, checked with the API's own schemas (shared/schemas/common.ts):
+ * a date that is not a calendar date (YYYY-MM-DD) and a confidence the API would refuse are left out
+ * rather than sent, since the address may have been typed by hand.
  */
 export function readKpiWindow(params: URLSearchParams): KpiWindow {
-  const from = text(params, 'from');
-  const to = text(params, 'to');
-  const confidence = Number(params.get('confidence'));
+  const day = (name: string) => {
+    const value = text(params, name);
+    return value !== undefined && isoDateSchema.safeParse(value).success ? value : undefined;
+  };
+  const confidence = params.has('confidence') ? confidenceSchema.safeParse(params.get('confidence')) : null;
   return {
     site: text(params, 'site'),
     asset: text(params, 'asset'),
-    from: from && isoDay.test(from) ? from : undefined,
-    to: to && isoDay.test(to) ? to : undefined,
-    confidence: params.has('confidence') && confidence > 0 && confidence < 1 ? confidence : undefined,
+    from: day('from'),
+    to: day('to'),
+    confidence: confidence?.success ? confidence.data : undefined,
   };
 }
 
