@@ -1,4 +1,4 @@
-// Freshness of KPI answers (issue: fresh data is never silently missing). Imports rebuild what is derived
+// Freshness of KPI answers (docs/design.md §6, freshness). Imports rebuild what is derived
 // from samples before they report success; whatever still lags — a bulk load with --no-refresh, a
 // refresh that failed, another process refreshing right now — is either rebuilt before the answer
 // (when that is quick) or named in the answer's `warnings`, with the command that fixes it.
@@ -11,8 +11,8 @@ import { refresh } from '../jobs/refresh.ts';
 
 /**
  * Up to this many tag-hours waiting, a KPI request rebuilds them itself before it answers: about one
- * second on a 2-core machine (a full rebuild of 20 M samples, ~1.6 M tag-hours, took 44 s; one day of
- * 40 tags, 960 tag-hours, 35 ms — README, Benchmarks). Beyond it the answer says what to run instead
+ * second on a 2-core machine (a full rebuild of 20 M samples, ~1.6 M tag-hours, took 38 s; one day of
+ * 40 tags, 960 tag-hours, 26 ms — README, Benchmarks). Beyond it the answer says what to run instead
  * of keeping the reader waiting for a bulk load's rebuild.
  */
 export const inlineRefreshTagHours = 40_000;
@@ -22,9 +22,9 @@ let inlineRefresh: Promise<unknown> | null = null;
 
 /**
  * Rebuild lagging derived rows before a KPI that reads them answers, when there are few enough of them
- * (`lagTagHours`, all sites, from the data-version read; read here when not given). Returns true when it refreshed, so the caller
- * reads the data version again. A failed refresh is not this request's error: the answer then says
- * the data lags.
+ * (`lagTagHours`, all sites, from the data-version read; read here when not given). Returns true when
+ * it refreshed, so the caller reads the data version again. A failed refresh is not this request's
+ * error: the answer then says the data lags.
  */
 export async function catchUpDerived(db: Db, lagTagHours?: number): Promise<boolean> {
   lagTagHours ??= (await dataVersionAndSettings(db.$client)).lagTagHours;

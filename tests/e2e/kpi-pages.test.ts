@@ -457,7 +457,7 @@ describe('the KPI pages with the demo plant', () => {
   });
 });
 
-// What a new user met on the pages (issue 13, items 2–6): overlapping axis labels, a blank first paint,
+// What a new user met on the pages: overlapping axis labels, a blank first paint,
 // the same answer fetched several times, raw timestamps and code marks in text, and role dashboards.
 
 /** Boxes of text a person should be able to read one by one, in page pixels. */
@@ -492,7 +492,7 @@ function readable(text: string, where: string) {
   expect(text, `${where}: literal backtick`).not.toContain('`');
 }
 
-describe('issue 13: what a new user meets on the pages', () => {
+describe('what a new user meets on the pages: readable axes, a first paint, one request per answer, text a person reads, role dashboards', () => {
   it.each([1280, 800])('membrane performance at %i px: every time axis has at least two labels and none overlaps another', async (width) => {
     const report = await api('engineer', '/api/kpi/performance', performanceReportSchema);
     const s = await openSession({ width, height: 900 });
@@ -511,7 +511,7 @@ describe('issue 13: what a new user meets on the pages', () => {
     }
     // The notes under each stage read as sentences: no raw instant of the baseline, no "point(s)".
     readable(await mainText(s.page), `performance at ${width} px`);
-    await shot(s.page, `issue13-performance-${width}`);
+    await shot(s.page, `readable-performance-${width}`);
     await closeSession(s);
   });
 
@@ -534,7 +534,7 @@ describe('issue 13: what a new user meets on the pages', () => {
     await s.page.waitForLoadState('load');
     await s.page.waitForTimeout(500);
     expect(await shell.isVisible(), 'the loading shell while the loaders wait').toBe(true);
-    await shot(s.page, 'issue13-loading-shell');
+    await shot(s.page, 'readable-loading-shell');
     await heading(s.page, 'Membrane performance');
     expect(await shell.count()).toBe(0);
     await s.page.unroute('**/api/kpi/**');
@@ -599,7 +599,7 @@ describe('issue 13: what a new user meets on the pages', () => {
     await s.page.getByText(/^Wide: with two failures or fewer/).waitFor();
     await s.page.getByText(/^Notes on the data/).click();
     readable(await mainText(s.page), 'reliability');
-    await shot(s.page, 'issue13-reliability-manager');
+    await shot(s.page, 'readable-reliability-manager');
     await closeSession(s);
   });
 
@@ -640,7 +640,7 @@ describe('issue 13: what a new user meets on the pages', () => {
     expect(text).not.toContain('0.000689475729');
     expect(text).toMatch(/0\.0006895\s+bar per mg\/L/);
     expect(text).toMatch(/3,020\s+K/);
-    await shot(s.page, 'issue13-settings-manager');
+    await shot(s.page, 'readable-settings-manager');
     await closeSession(s);
   });
 
@@ -679,7 +679,7 @@ describe('issue 13: what a new user meets on the pages', () => {
       const overflow = await s.page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
       expect(overflow, `${role} at ${width} px: page wider than the screen`).toBe(0);
       readable(await mainText(s.page), `dashboard ${role} ${width}`);
-      await shot(s.page, `issue13-dashboard-${role}-${width}`);
+      await shot(s.page, `readable-dashboard-${role}-${width}`);
     }
     await closeSession(s);
   });
