@@ -7,7 +7,7 @@ import { type NullReason } from '#shared/schemas/answer.ts';
 import { quantileMethodType7 } from '#shared/schemas/time-to-complete.ts';
 
 /**
- * Why a KPI value is null: kebab-case codes (STYLE §4) listed with the API schemas, since answers
+ * Why a KPI value is null: kebab-case codes listed with the API schemas, since answers
  * carry them; `nullReasonMessages` turns a code into a sentence.
  */
 export { nullReasons, type NullReason } from '#shared/schemas/answer.ts';

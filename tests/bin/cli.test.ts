@@ -89,7 +89,7 @@ describe('bin/osmia', () => {
     expect(cli('import', 'tags', '/no/such/file.csv').code).toBe(1);
   });
 
-  it('refresh, then kpi reliability --json prints the DESIGN §7 object', () => {
+  it('refresh, then kpi reliability --json prints the docs/design.md §7 object', () => {
     cli('import', 'historian', fileWith('timestamp,tag,value\n2026-01-01T00:00:00Z,TR1.RUN,1\n2026-01-01T10:00:00Z,TR1.RUN,0\n'));
     expect(cli('refresh').code).toBe(0);
     const r = cli('kpi', 'reliability', '--asset', 'TR1', '--json');

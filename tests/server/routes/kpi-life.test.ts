@@ -50,7 +50,7 @@ const get = (url: string, role: keyof TestApp['cookies'] | null = 'engineer') =>
 };
 
 describe('GET /api/kpi/element-life', () => {
-  it('answers the groups of DESIGN §7 with Kaplan–Meier survival', async () => {
+  it('answers the groups of docs/design.md §7 with Kaplan–Meier survival', async () => {
     const res = await get('/api/kpi/element-life?site=RT&to=2022-01-01');
     expect(res.status).toBe(200);
     const body = elementLifeReportSchema.parse(res.body);

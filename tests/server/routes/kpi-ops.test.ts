@@ -59,7 +59,7 @@ describe('GET /api/kpi/reliability', () => {
 });
 
 describe('GET /api/kpi/downtime', () => {
-  it('answers events and totals with the keys of DESIGN §7; finance may read it', async () => {
+  it('answers events and totals with the keys of docs/design.md §7; finance may read it', async () => {
     const res = await get(`/api/kpi/downtime?${window}`, 'finance');
     expect(res.status).toBe(200);
     const body = downtimeReportSchema.parse(res.body);

@@ -22,7 +22,7 @@ const run = async (q: Record<string, unknown>) =>
   getDowntime(t.db, downtimeQuerySchema.parse({ site: SITE, from: '2025-01-01T00:00:00Z', to: '2025-01-11T00:00:00Z', ...q }), await getSettings(t.db));
 
 describe('stop events of the whole site', () => {
-  it('lists each stop with the keys of DESIGN §7, planned vs unplanned and its cause', async () => {
+  it('lists each stop with the keys of docs/design.md §7, planned vs unplanned and its cause', async () => {
     const report = beforeFreshnessSchema(downtimeReportSchema).parse(await run({}));
     expect(report.events.map((e) => [e.asset, e.from, e.to, e.hours, e.planned, e.cause, e.lostVolumeM3])).toEqual([
       // Seal leak: overlaps WO-1 (corrective, SEAL-LEAK) only → unplanned. 12 h × 100 m³/h.

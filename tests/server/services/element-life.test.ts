@@ -179,7 +179,7 @@ describe('element life: a register worked by hand', () => {
     expect(all.b10Days).toBeCloseTo(all.weibull!.scaleDays * (-Math.log(0.9)) ** (1 / beta), 9);
   });
 
-  it('groups by train, stage, position and model with the keys of DESIGN §6', async () => {
+  it('groups by train, stage, position and model with the keys of docs/design.md §6', async () => {
     const byTrain = await report({ site: 'KM', to: '2022-01-01', groupBy: 'train' });
     expect(byTrain.groups.map((g) => [g.key, g.n, g.events])).toEqual([
       ['train=T1', 5, 2],

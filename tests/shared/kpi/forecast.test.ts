@@ -68,7 +68,7 @@ describe('replacement forecast, first events', () => {
     expect(result.periods[1]!.label).toBe('m2');
   });
 
-  it('gives a later month the DESIGN §6 conditional probability once survival to its start is factored in', () => {
+  it('gives a later month the docs/design.md §6 conditional probability once survival to its start is factored in', () => {
     // P(event in [s, s+h) | alive at 0) = R(a+s)/R(a) · (1 − exp((a+s)^β/η^β − (a+s+h)^β/η^β)).
     const a = 50;
     const result = forecastReplacements({

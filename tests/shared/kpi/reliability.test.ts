@@ -91,7 +91,7 @@ describe('MTBF with zero failures (T = 800 h)', () => {
     expect(result).toMatchObject({ mtbfHours: null, upperHours: null, reason: 'no-failures' });
   });
 
-  it('two-sided (the default) gives DESIGN §6 lower 2T/χ²_{1−α/2}(2) = T/(−ln(α/2)) = 267.0466 h at 90 %', () => {
+  it('two-sided (the default) gives docs/design.md §6 lower 2T/χ²_{1−α/2}(2) = T/(−ln(α/2)) = 267.0466 h at 90 %', () => {
     // Own computation from the closed form: 800 / ln 20 = 267.04656...
     const result = mtbfWithBounds({ operatingHours: 800, failures: 0, confidence: 0.9, terminated: 'time' });
     expect(relErr(result.lowerHours!, 800 / Math.log(20))).toBeLessThan(1e-9);

@@ -70,7 +70,7 @@ describe('endpoint queries', () => {
   });
 });
 
-describe('answers follow DESIGN §7', () => {
+describe('answers follow docs/design.md §7', () => {
   it('reliability: the documented keys, from the KPI functions', () => {
     const mtbf = mtbfWithBounds({ operatingHours: 8696, failures: 4, confidence: 0.9, terminated: 'time' });
     const mttr = mttrHours([10, 14, 6, 18]);
