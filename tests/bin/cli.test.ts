@@ -1,14 +1,12 @@
 // One argv smoke test per command of bin/osmia, through the real launcher, against a test database.
-import { spawnSync } from 'node:child_process';
-import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { importRecordSchema } from '#shared/schemas/imports.ts';
 import { reliabilityReportSchema } from '#shared/schemas/reliability.ts';
 import { signIn } from '#server/services/users.ts';
 import { createTestDatabase, type TestDatabase } from '../setup/db.ts';
 import { fileWith, plant } from '../server/importers/helpers.ts';
+import { runCli } from '../setup/cli.ts';
 
-const osmia = join(import.meta.dirname, '..', '..', 'bin', 'osmia');
 let t: TestDatabase;
 beforeAll(async () => {
   t = await createTestDatabase();
@@ -21,8 +19,7 @@ function cli(...args: string[]) {
 
 /** Run with `input` piped to standard input (not a terminal). */
 function cliWithInput(input: string, ...args: string[]) {
-  const r = spawnSync(osmia, args, { env: { ...process.env, DATABASE_URL: t.url, CI: '1' }, encoding: 'utf8', timeout: 120_000, input });
-  return { code: r.status, out: r.stdout, err: r.stderr };
+  return runCli(t.url, args, input);
 }
 
 describe('bin/osmia', () => {

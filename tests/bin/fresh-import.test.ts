@@ -2,8 +2,6 @@
 // `osmia refresh` in between: the answers count the new data (issue: fresh data is never silently missing).
 // The plant is ops-plant.ts's, plus a run-status tag on TR1's high-pressure pump, which stops with the train
 // on Jan 3 (06:00–18:00) and once on its own on Jan 9 (10:00–14:00) while the train runs.
-import { spawnSync } from 'node:child_process';
-import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { importRecordSchema } from '#shared/schemas/imports.ts';
 import { reliabilityReportSchema } from '#shared/schemas/reliability.ts';
@@ -13,18 +11,15 @@ import { performanceReportSchema } from '#shared/schemas/performance.ts';
 import { createTestDatabase, type TestDatabase } from '../setup/db.ts';
 import { fileWith } from '../server/importers/helpers.ts';
 import { assetsCsv, elementsCsv, historianCsv, tagsCsv, workOrdersCsv } from '../fixtures/ops-plant.ts';
+import { runCli } from '../setup/cli.ts';
 
-const osmia = join(import.meta.dirname, '..', '..', 'bin', 'osmia');
 let t: TestDatabase;
 beforeAll(async () => {
   t = await createTestDatabase();
 });
 afterAll(() => t.close());
 
-function cli(...args: string[]) {
-  const r = spawnSync(osmia, args, { env: { ...process.env, DATABASE_URL: t.url, CI: '1' }, encoding: 'utf8', timeout: 120_000 });
-  return { code: r.status, out: r.stdout, err: r.stderr };
-}
+const cli = (...args: string[]) => runCli(t.url, args);
 
 const H = 3_600_000;
 function pumpHistorian(): string {

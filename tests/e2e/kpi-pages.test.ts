@@ -2,7 +2,6 @@
 // holds the invented demo plant (imported through the importers, then refreshed). Each page is opened
 // by a role that may read it; its key figures must match the API's answer, read nothing like NaN or
 // "undefined", and raise no console error. Every step leaves a screenshot in tests/e2e/screenshots/.
-import { spawnSync } from 'node:child_process';
 import { mkdirSync, mkdtempSync } from 'node:fs';
 import type { Server } from 'node:http';
 import { tmpdir } from 'node:os';
@@ -28,9 +27,9 @@ import { seedDemo } from '#server/demo/seed.ts';
 import { refresh } from '#server/jobs/refresh.ts';
 import { buildClient, launchChromium, listen, tearDown } from './harness.ts';
 import { createTestApp, rolePasswords, type TestApp } from '../setup/app.ts';
+import { runCli } from '../setup/cli.ts';
 
 const shotsDir = fileURLToPath(new URL('./screenshots', import.meta.url));
-const osmia = fileURLToPath(new URL('../../bin/osmia', import.meta.url));
 
 let t: TestApp;
 let server: Server;
@@ -430,13 +429,9 @@ describe('the KPI pages with the demo plant', () => {
     const report = await api('manager', `/api/kpi/downtime?from=${window.from}&to=${window.to}`, downtimeReportSchema);
     expect(report.plant.events).toBeGreaterThan(0);
     // The CLI computes the same object from the same database.
-    const cli = spawnSync(osmia, ['kpi', 'downtime', '--from', window.from, '--to', window.to, '--json'], {
-      env: { ...process.env, DATABASE_URL: t.url, CI: '1' },
-      encoding: 'utf8',
-      timeout: 120_000,
-    });
-    expect(cli.status, cli.stderr).toBe(0);
-    expect(downtimeReportSchema.parse(JSON.parse(cli.stdout))).toEqual(report);
+    const cli = runCli(t.url, ['kpi', 'downtime', '--from', window.from, '--to', window.to, '--json']);
+    expect(cli.code, cli.err).toBe(0);
+    expect(downtimeReportSchema.parse(JSON.parse(cli.out))).toEqual(report);
     // The page's headline figures for the window in its address.
     const s = await openSession();
     await signIn(s, 'manager', `/downtime?from=${window.from}&to=${window.to}`);
