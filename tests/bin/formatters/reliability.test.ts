@@ -7,6 +7,19 @@ import { freshAnswer } from '../../fixtures/freshness.ts';
 const cells = (line: string) => line.split('│').map((c) => c.trim()).filter(Boolean);
 
 // Figures of the pump of tests/server/services/reliability.test.ts: T = 220 h, r = 2 (hand-worked there).
+/** A group running 220 h of a 240 h window on its train's run status (the fields every group carries). */
+const group = (asset: string, scope: string[]) => ({
+  asset,
+  operatingHours: 220,
+  operationalAvailability: 220 / 240,
+  meanActiveRepairHours: null,
+  scope,
+  operatingTimeSource: 'ancestor-run-status',
+  reasons: {},
+  operatingTime: { windowHours: 240, uptimeHours: 220, downtimeHours: 20, unknownHours: 0, units: [{ asset, source: 'ancestor-run-status', tag: 'TR1.RUN', hours: 220 }] },
+  mttrBasis: { outOfServiceWindow: 0, completedLessReported: 0, unknown: 0 },
+  notes: [],
+});
 const report = {
   ...reliabilityReportSchema.parse({
   ...freshAnswer,
@@ -29,10 +42,14 @@ const report = {
     scope: ['TR1', 'TR1-S1', 'TR1-HPP'],
     operatingTimeSource: 'run-status',
     reasons: {},
+    operatingTime: { windowHours: 240, uptimeHours: 220, downtimeHours: 20, unknownHours: 0, units: [{ asset: 'TR1', source: 'run-status', tag: 'TR1.RUN', hours: 220 }] },
+    mttrBasis: { outOfServiceWindow: 1, completedLessReported: 1, unknown: 0 },
+    notes: [],
     groups: [
-      { key: 'asset=TR1-HPP', asset: 'TR1-HPP', operatingHours: 220, failures: 2, mtbfHours: 110, mtbfLowerHours: 34.94, mtbfUpperHours: 619.09, mttrHours: 9, availability: 110 / 119, operatingTimeSource: 'ancestor-run-status' },
-      { key: 'asset=TR1-S1', asset: 'TR1-S1', operatingHours: 220, failures: 0, mtbfHours: null, mtbfLowerHours: 73.44, mtbfUpperHours: null, mttrHours: null, availability: null, operatingTimeSource: 'ancestor-run-status', reasons: { mtbfHours: 'no-failures' } },
+      { key: 'asset=TR1-HPP', ...group('TR1-HPP', ['TR1-HPP']), failures: 2, mtbfHours: 110, mtbfLowerHours: 34.94, mtbfUpperHours: 619.09, mttrHours: 9, availability: 110 / 119, meanActiveRepairHours: 6, mttrBasis: { outOfServiceWindow: 1, completedLessReported: 1, unknown: 0 } },
+      { key: 'asset=TR1-S1', ...group('TR1-S1', ['TR1-S1']), failures: 0, mtbfHours: null, mtbfLowerHours: 73.44, mtbfUpperHours: null, mttrHours: null, availability: null, reasons: { mtbfHours: 'no-failures' } },
     ],
+    provenance: { workOrders: ['WO-1', 'WO-2'], tags: ['TR1.RUN'], windows: [] },
   }),
   notes: ['1 of 2 failure(s) have no out-of-service window: their restoration time is completed − reported.'],
 };
