@@ -12,9 +12,9 @@ function band({ lower, upper }: Band): string | null {
 /**
  * A plain-text forecast: per group, one row per month (expected count, its band, expected cost and
  * its band), a total row; then the months summed over groups, notes, and the cautions of vessel work
- * (the report's own, else shared/cautions.ts), which every replacement recommendation carries.
+ * (the report's own, else those of shared/cautions.ts), which every replacement recommendation carries.
  */
-export function formatForecast(report: ForecastReport & { cautions?: readonly string[]; notes?: readonly string[] }): string {
+export function formatForecast(report: ForecastReport): string {
   const currency = report.currency ?? '';
   const pct = formatNumber(report.confidence * 100, 1);
   const lines: string[] = [`Element replacement forecast${report.site ? ` — site ${report.site}` : ''} from ${report.asOf}, grouped by ${report.groupBy}`];
@@ -42,6 +42,7 @@ export function formatForecast(report: ForecastReport & { cautions?: readonly st
   }
   for (const note of report.notes ?? []) lines.push(`Note: ${note}`);
   lines.push('Before replacing elements (pressure vessels are opened):');
-  for (const caution of report.cautions ?? vesselWorkCautions) lines.push(`  ! ${caution}`);
+  // An answer always carries them; should its list ever be empty, the shared list is printed all the same.
+  for (const caution of report.cautions.length > 0 ? report.cautions : vesselWorkCautions) lines.push(`  ! ${caution}`);
   return lines.join('\n');
 }

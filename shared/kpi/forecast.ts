@@ -22,7 +22,7 @@ export interface ForecastPeriod {
   end: Date;
 }
 
-export interface ForecastInput {
+export interface ReplacementForecastInput {
   asOf: Date;
   elements: readonly ForecastElement[];
   periods: readonly ForecastPeriod[];
@@ -88,7 +88,7 @@ export const forecastBandMethod =
  * empty list and totals 0. Throws on negative ages or costs, non-positive parameters, or a period
  * that starts before asOf or does not end after it starts.
  */
-export function forecastReplacements(input: ForecastInput): ForecastResult {
+export function forecastReplacements(input: ReplacementForecastInput): ForecastResult {
   const { asOf, elements, periods, fit } = input;
   const renewal = input.renewal ?? false;
   if (!Number.isFinite(asOf.getTime())) throw new RangeError('asOf is not a valid date.');

@@ -14,24 +14,25 @@ export type ElementLifeQuery = z.infer<typeof elementLifeQuerySchema>;
 export const weibullSchema = z.object({
   shape: z.number().positive(),
   scaleDays: z.number().positive(),
-  shapeLower: z.number().nonnegative().optional(),
-  shapeUpper: z.number().positive().nullable().optional(),
-  scaleLowerDays: days.optional(),
-  scaleUpperDays: z.number().positive().nullable().optional(),
-  logLik: z.number().optional(),
-  intervalMethod: z.enum(['likelihood-ratio', 'wald-log']).optional(),
+  /** Interval limits at the query's confidence; an upper limit that does not close is null ('unbounded' in reasons). */
+  shapeLower: z.number().nonnegative(),
+  shapeUpper: z.number().positive().nullable(),
+  scaleLowerDays: days,
+  scaleUpperDays: z.number().positive().nullable(),
+  logLik: z.number(),
+  intervalMethod: z.enum(['likelihood-ratio', 'wald-log']),
 });
 
 export const kmPointSchema = z.object({
   tDays: days,
   survival: fraction,
-  nRisk: count.optional(),
-  nEvents: count.optional(),
-  nCensored: count.optional(),
+  nRisk: count,
+  nEvents: count,
+  nCensored: count,
   /** Greenwood standard error; null once survival is 0. */
-  se: z.number().nonnegative().nullable().optional(),
-  lower: fraction.nullable().optional(),
-  upper: fraction.nullable().optional(),
+  se: z.number().nonnegative().nullable(),
+  lower: fraction.nullable(),
+  upper: fraction.nullable(),
 });
 
 const regressionLineSchema = z.object({ shape: z.number().positive(), scaleDays: z.number().positive() });
@@ -45,20 +46,20 @@ export const elementLifeGroupSchema = z.object({
   n: count,
   events: count,
   /** Of the n lives, those begun before the window's start (entering at their age then). */
-  enteredLate: count.optional(),
+  enteredLate: count,
   weibull: weibullSchema.nullable(),
   b10Days: days.nullable(),
   medianDays: days.nullable(),
   meanDays: days.nullable(),
-  kmMedianDays: days.nullable().optional(),
-  kmMedianLowerDays: days.nullable().optional(),
-  kmMedianUpperDays: days.nullable().optional(),
+  kmMedianDays: days.nullable(),
+  kmMedianLowerDays: days.nullable(),
+  kmMedianUpperDays: days.nullable(),
   km: z.array(kmPointSchema),
   /** Median-rank regression (Bernard ranks), a cross-check of the fit. */
   medianRankRegression: z
     .object({ yOnX: regressionLineSchema, xOnY: regressionLineSchema, correlation: z.number().min(-1).max(1) })
-    .nullable()
-    .optional(),
+    .nullable(),
+  /** Present when a figure of the group is null. */
   reasons: reasonsSchema.optional(),
 });
 
@@ -76,16 +77,23 @@ export const windowTreatmentSchema = z.object({
   text: z.string(),
 });
 
+/** Provenance of an element answer: the serials used (at most PROVENANCE_CAP, shared/kpi/provenance.ts) and their number. */
+export const elementProvenanceSchema = provenanceSchema.extend({
+  elements: z.array(z.string()),
+  elementCount: count,
+});
+
 export const elementLifeReportSchema = z.object({
-  site: z.string().optional(),
+  site: z.string(),
   ...freshnessShape,
-  from: isoInstantSchema.nullable().optional(),
-  to: isoInstantSchema.nullable().optional(),
-  confidence: confidence.optional(),
-  groupBy: z.enum(elementGroupByValues).optional(),
+  /** The resolved window [from, to); null when there is no data to bound a default window. */
+  from: isoInstantSchema.nullable(),
+  to: isoInstantSchema.nullable(),
+  confidence,
+  groupBy: z.enum(elementGroupByValues),
   groups: z.array(elementLifeGroupSchema),
-  windowTreatment: windowTreatmentSchema.optional(),
-  notes: z.array(z.string()).optional(),
-  provenance: provenanceSchema.optional(),
+  windowTreatment: windowTreatmentSchema,
+  notes: z.array(z.string()),
+  provenance: elementProvenanceSchema,
 });
 export type ElementLifeReport = z.infer<typeof elementLifeReportSchema>;

@@ -1,9 +1,16 @@
 // Query and answer of the forecast KPI (GET /api/kpi/forecast, `osmia kpi forecast --json`).
 import { z } from 'zod';
 
-import { confidence, count, days, fraction, provenanceSchema, reasonsSchema } from './answer.ts';
+import { confidence, count, days, fraction, reasonsSchema } from './answer.ts';
 import { freshnessShape, isoInstantSchema, windowQuerySchema } from './common.ts';
-import { elementGroupBySchema, elementGroupByValues, elementGroupKeySchema, weibullSchema, windowTreatmentSchema } from './element-life.ts';
+import {
+  elementGroupBySchema,
+  elementGroupByValues,
+  elementGroupKeySchema,
+  elementProvenanceSchema,
+  weibullSchema,
+  windowTreatmentSchema,
+} from './element-life.ts';
 
 /** GET /api/kpi/forecast: the next `months` calendar months from `to` (or now), per group. */
 export const forecastQuerySchema = windowQuerySchema.extend({
@@ -28,30 +35,32 @@ export const forecastMonthSchema = forecastFiguresSchema.extend({
   label: z.string(),
   from: isoInstantSchema,
   to: isoInstantSchema,
-  /** The rest of the month the forecast starts in. */
-  partial: z.boolean().optional(),
+  /** true for the rest of the month the forecast starts in (when it does not start on the 1st). */
+  partial: z.boolean(),
 });
 
 export const forecastGroupSchema = z.object({
   key: elementGroupKeySchema,
   /** Elements in service at `asOf`. */
   inService: count,
-  weibull: weibullSchema.nullable(),
+  /** The fit used (a group without one is left out, and named in the notes). */
+  weibull: weibullSchema,
   months: z.array(forecastMonthSchema),
   total: forecastFiguresSchema,
-  elements: z.array(z.object({ serial: z.string(), ageDays: days, probability: fraction })).optional(),
+  /** The elements most likely to need replacing first, at most 500 (shared/kpi/forecast-report.ts). */
+  elements: z.array(z.object({ serial: z.string(), ageDays: days, probability: fraction })),
   reasons: reasonsSchema.optional(),
-  /** 'own' fit of the group, or the pooled fit of every life in scope when the group has none. */
-  fitSource: z.string().optional(),
+  /** 'group': the group's own fit; 'pooled': the fit of every life in scope, as the group's own lives give none. */
+  fitSource: z.enum(['group', 'pooled']),
 });
 
 export const forecastReportSchema = z.object({
-  site: z.string().optional(),
+  site: z.string(),
   ...freshnessShape,
   asOf: isoInstantSchema,
   confidence,
   groupBy: z.enum(elementGroupByValues),
-  currency: z.string().optional(),
+  currency: z.string(),
   renewal: z.boolean(),
   /** How the lower/upper band was obtained. */
   bandMethod: z.string(),
@@ -70,12 +79,12 @@ export const forecastReportSchema = z.object({
    * Elements in service at the forecast start (the window's end `to`: installed before it, not
    * removed before it, however long before the window they were installed), forecast or not.
    */
-  inService: count.optional(),
+  inService: count,
   /** How the lives of the fits were taken from the window (see windowTreatmentSchema). */
-  windowTreatment: windowTreatmentSchema.optional(),
-  notes: z.array(z.string()).optional(),
+  windowTreatment: windowTreatmentSchema,
+  notes: z.array(z.string()),
   /** Replacing elements means opening pressure vessels: the usual cautions (shared/cautions.ts). */
-  cautions: z.array(z.string()).optional(),
-  provenance: provenanceSchema.optional(),
+  cautions: z.array(z.string()),
+  provenance: elementProvenanceSchema,
 });
 export type ForecastReport = z.infer<typeof forecastReportSchema>;

@@ -1,3 +1,4 @@
+import type { ElementInstall } from '#shared/kpi/element-life-report.ts';
 import type { Queryable } from './queryable.ts';
 
 export interface ElementValues {
@@ -35,14 +36,10 @@ export async function upsertElements(q: Queryable, siteId: number, importId: num
   }
 }
 
-/** One element install with its place: what element-life and forecast read. */
-export interface ElementInstall extends ElementValues {
-  id: number;
-}
-
 /**
  * The installs of elements in the given vessels (null: every vessel of the site) that were installed before `installedBefore`
- * (every install when null), ordered by serial and install time so answers are stable.
+ * (every install when null), ordered by serial and install time so answers are stable; as ElementInstall, the input element
+ * life and the forecast take (shared/kpi/element-life-report.ts).
  */
 export async function listElementInstalls(
   q: Queryable,

@@ -3,7 +3,8 @@ import { elementLifeReportSchema } from '#shared/schemas/element-life.ts';
 import { formatElementLife } from '#bin/formatters/element-life.ts';
 import { freshAnswer } from '../../fixtures/freshness.ts';
 
-// Figures of the Lieblein & Zelen (1956) ball-bearing fit (reference/checks.json), as days.
+// Figures of the Lieblein & Zelen (1956) ball-bearing fit (reference/checks.json), as days. The fields the
+// formatter does not print (scale limits, log-likelihood, KM median limits) only complete the answer's shape.
 const report = elementLifeReportSchema.parse({
   ...freshAnswer,
   site: 'LZ',
@@ -16,15 +17,39 @@ const report = elementLifeReportSchema.parse({
       key: 'position=1',
       n: 23,
       events: 23,
-      weibull: { shape: 2.102058875, scaleDays: 81.87833405, shapeLower: 1.55, shapeUpper: 2.71 },
+      weibull: { shape: 2.102058875, scaleDays: 81.87833405, shapeLower: 1.55, shapeUpper: 2.71, scaleLowerDays: 68.6, scaleUpperDays: 97.3, logLik: -113.69, intervalMethod: 'likelihood-ratio' },
       b10Days: 28.06941401,
       medianDays: 68.77741335,
       meanDays: 72.51865178,
+      enteredLate: 0,
       kmMedianDays: 67.8,
-      km: [{ tDays: 17.88, survival: 22 / 23 }],
+      kmMedianLowerDays: 51.84,
+      kmMedianUpperDays: 93.12,
+      // First KM step, 1 event of 23 at risk: Greenwood se = S·√(1/(23·22)), log-transformed 90 % bounds S·exp(∓1.645·√(1/(23·22))), upper capped at 1.
+      km: [{ tDays: 17.88, survival: 22 / 23, nRisk: 23, nEvents: 1, nCensored: 0, se: (22 / 23) * Math.sqrt(1 / 506), lower: (22 / 23) * Math.exp(-1.645 * Math.sqrt(1 / 506)), upper: 1 }],
+      medianRankRegression: null,
+      reasons: { medianRankRegression: 'too-few-events' },
     },
-    { key: 'position=2', n: 2, events: 0, weibull: null, b10Days: null, medianDays: null, meanDays: null, kmMedianDays: null, km: [], reasons: { weibull: 'no-events' } },
+    {
+      key: 'position=2',
+      n: 2,
+      events: 0,
+      enteredLate: 0,
+      weibull: null,
+      b10Days: null,
+      medianDays: null,
+      meanDays: null,
+      kmMedianDays: null,
+      kmMedianLowerDays: null,
+      kmMedianUpperDays: null,
+      km: [],
+      medianRankRegression: null,
+      reasons: { weibull: 'no-events' },
+    },
   ],
+  windowTreatment: { enteredLate: 0, censoredAtEnd: 2, text: 'Lives still in service at the window end are censored there.' },
+  notes: ['Lives still in service at the window end are censored there.'],
+  provenance: { workOrders: [], tags: [], windows: [], elements: [], elementCount: 25 },
 });
 
 describe('formatElementLife', () => {

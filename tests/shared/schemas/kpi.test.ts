@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 
-import { fitWeibull, kaplanMeier, weibullLifeStats } from '#shared/kpi/element-life.ts';
+import { vesselWorkCautions } from '#shared/cautions.ts';
+import { fitWeibull, kaplanMeier, weibullLifeStats, weibullMedianRankRegression } from '#shared/kpi/element-life.ts';
 import { mtbfWithBounds, mttrHours, inherentAvailability } from '#shared/kpi/reliability.ts';
 import { nullReasonMessages, nullReasons } from '#shared/kpi/stats.ts';
 import { timeToComplete } from '#shared/kpi/time-to-complete.ts';
@@ -148,6 +149,7 @@ describe('answers follow docs/design.md §7', () => {
     const fit = fitWeibull(times, events).fit!;
     const life = weibullLifeStats(fit);
     const km = kaplanMeier(times, events, 0.9);
+    const mrr = weibullMedianRankRegression(times, events).fit!;
     const answer = {
       ...freshAnswer,
       groups: [
@@ -155,27 +157,59 @@ describe('answers follow docs/design.md §7', () => {
           key: 'position=1',
           n: times.length,
           events: 5,
-          weibull: { shape: fit.shape, scaleDays: fit.scale, shapeLower: fit.shapeLower, shapeUpper: fit.shapeUpper },
+          weibull: {
+            shape: fit.shape,
+            scaleDays: fit.scale,
+            shapeLower: fit.shapeLower,
+            shapeUpper: fit.shapeUpper,
+            scaleLowerDays: fit.scaleLower,
+            scaleUpperDays: fit.scaleUpper,
+            logLik: fit.logLik,
+            intervalMethod: fit.intervalMethod,
+          },
           b10Days: life.b10,
           medianDays: life.median,
           meanDays: life.mean,
+          enteredLate: 0,
           kmMedianDays: km.median,
-          km: km.rows.map((r) => ({ tDays: r.t, survival: r.survival, lower: r.lower, upper: r.upper })),
+          kmMedianLowerDays: km.medianLower,
+          kmMedianUpperDays: km.medianUpper,
+          km: km.rows.map((r) => ({ tDays: r.t, survival: r.survival, nRisk: r.nRisk, nEvents: r.nEvents, nCensored: r.nCensored, se: r.se, lower: r.lower, upper: r.upper })),
+          medianRankRegression: {
+            yOnX: { shape: mrr.yOnX.shape, scaleDays: mrr.yOnX.scale },
+            xOnY: { shape: mrr.xOnY.shape, scaleDays: mrr.xOnY.scale },
+            correlation: mrr.correlation,
+          },
         },
         {
           key: 'all',
           n: 2,
           events: 0,
+          enteredLate: 0,
           weibull: null,
           b10Days: null,
           medianDays: null,
           meanDays: null,
-          km: [{ tDays: 100, survival: 1 }],
-          reasons: { weibull: 'no-events' },
+          kmMedianDays: null,
+          kmMedianLowerDays: null,
+          kmMedianUpperDays: null,
+          km: [{ tDays: 100, survival: 1, nRisk: 2, nEvents: 0, nCensored: 2, se: 0, lower: 1, upper: 1 }],
+          medianRankRegression: null,
+          reasons: { weibull: 'no-events', kmMedianDays: 'not-reached' },
         },
       ],
+      site: 'PLANT',
+      from: '2025-01-01T00:00:00.000Z',
+      to: '2029-01-01T00:00:00.000Z',
+      confidence: 0.9,
+      groupBy: 'position',
+      windowTreatment: { enteredLate: 0, censoredAtEnd: 5, text: 'Every element life in the window (10) is observed from its installation.' },
+      notes: ['Every element life in the window (10) is observed from its installation.'],
+      provenance: { workOrders: [], tags: [], windows: [], elements: Array.from({ length: 10 }, (_, i) => `E-${i + 1}`), elementCount: 10 },
     };
     expect(elementLifeReportSchema.parse(answer)).toEqual(answer);
+    // An element answer names the serials it used, and how many there were.
+    expect(elementLifeReportSchema.safeParse({ ...answer, provenance: { workOrders: [], tags: [], windows: [] } }).success).toBe(false);
     expect(elementLifeReportSchema.safeParse({ ...answer, groups: [{ ...answer.groups[1], key: 'colour=red' }] }).success).toBe(
       false,
     );
@@ -226,9 +260,12 @@ describe('answers follow docs/design.md §7', () => {
       countUpper: 0.7,
       costLower: 124,
       costUpper: 434,
+      partial: false,
     };
     const answer = {
       ...freshAnswer,
+      site: 'PLANT',
+      currency: 'EUR',
       asOf: '2026-01-01T00:00:00.000Z',
       confidence: 0.9,
       groupBy: 'all',
@@ -238,7 +275,8 @@ describe('answers follow docs/design.md §7', () => {
         {
           key: 'all',
           inService: 12,
-          weibull: { shape: 2.1, scaleDays: 1500 },
+          weibull: { shape: 2.1, scaleDays: 1500, shapeLower: 1.4, shapeUpper: 3, scaleLowerDays: 1200, scaleUpperDays: 1900, logLik: -61.2, intervalMethod: 'likelihood-ratio' },
+          fitSource: 'group',
           months: [month],
           total: {
             expectedCount: 0.4,
@@ -248,11 +286,19 @@ describe('answers follow docs/design.md §7', () => {
             costLower: 124,
             costUpper: 434,
           },
+          elements: [{ serial: 'E-7', ageDays: 1400, probability: 0.08 }],
         },
       ],
       totals: [{ label: '2026-01', from: month.from, to: month.to, expectedCount: 0.4, expectedCost: 248 }],
+      inService: 12,
+      windowTreatment: { enteredLate: 0, censoredAtEnd: 12, text: 'The forecast covers the 12 element(s) in service at the window’s end.' },
+      notes: [],
+      cautions: [...vesselWorkCautions],
+      provenance: { workOrders: [], tags: [], windows: [], elements: ['E-7'], elementCount: 12 },
     };
     expect(forecastReportSchema.parse(answer)).toEqual(answer);
+    // A group says whose fit it used: its own or the pooled one, nothing else.
+    expect(forecastReportSchema.safeParse({ ...answer, groups: [{ ...answer.groups[0], fitSource: 'own' }] }).success).toBe(false);
   });
 });
 
