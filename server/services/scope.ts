@@ -5,6 +5,7 @@ import { listAssets, type AssetRecord } from '../db/queries/assets.ts';
 import { findSite, listSites, type SiteRow } from '../db/queries/sites.ts';
 import { HttpError, badRequest, notFound } from '../errors.ts';
 import { TimestampReader } from '#shared/timestamps.ts';
+import { subtree } from '#shared/kpi/asset-tree.ts';
 
 export interface KpiScope {
   site: SiteRow;
@@ -19,26 +20,7 @@ export interface KpiScope {
   to: Date | null;
 }
 
-/** The asset and its descendants, parents before children. */
-export function subtree(assets: AssetRecord[], root: AssetRecord): AssetRecord[] {
-  const children = new Map<number, AssetRecord[]>();
-  for (const a of assets) if (a.parentId !== null) (children.get(a.parentId) ?? children.set(a.parentId, []).get(a.parentId)!).push(a);
-  const out: AssetRecord[] = [];
-  const walk = (a: AssetRecord) => {
-    out.push(a);
-    for (const c of children.get(a.id) ?? []) walk(c);
-  };
-  walk(root);
-  return out;
-}
-
-/** The asset, then its parent, and so on up to the root. */
-export function ancestry(assets: AssetRecord[], asset: AssetRecord): AssetRecord[] {
-  const byId = new Map(assets.map((a) => [a.id, a]));
-  const out: AssetRecord[] = [];
-  for (let at: AssetRecord | undefined = asset; at && !out.includes(at); at = at.parentId === null ? undefined : byId.get(at.parentId)) out.push(at);
-  return out;
-}
+export { ancestry, subtree } from '#shared/kpi/asset-tree.ts';
 
 /** A window bound: an instant with offset as is; a bare date or naive date-time in the site's zone. */
 export function resolveBound(text: string, timeZone: string): Date {
