@@ -195,6 +195,29 @@ export function stageTrain<A extends PerformanceAsset>(assets: readonly A[], sta
   return ancestry(assets, stage).find((a) => a.kind === 'train') ?? null;
 }
 
+/** One day's means as they are added up into a point. */
+interface DayOfMeans {
+  point: Partial<PerformancePoint> & { time: Date };
+  hours: number;
+}
+
+/** Adds one daily mean to its day: a needed quantity's field and the day's running hours, or the measured concentrate flow. */
+function addMean(day: DayOfMeans, row: DailyMean, quantityOf: ReadonlyMap<number, Quantity>): void {
+  const quantity = quantityOf.get(row.tagId)!;
+  if (quantity === 'concentrate_flow') day.point.qc = row.mean;
+  else {
+    day.point[requiredQuantities[quantity as RequiredQuantity]] = row.mean;
+    day.hours = Math.max(day.hours, row.hours);
+  }
+}
+
+/** The day's operating point; throws (stageState's error) when its means are not a physical operating point. */
+function checkedPoint(day: DayOfMeans, settings: Partial<PerformanceSettings>): PerformancePoint {
+  const p = { ...day.point, qc: day.point.qc ?? null } as PerformancePoint;
+  stageState(p, settings);
+  return p;
+}
+
 /**
  * Daily operating points of a stage from its daily means, sorted by day, with the running hours of each
  * day. A day whose means are not a physical operating point (e.g. permeate flow ≥ feed flow) is left out,
@@ -208,28 +231,48 @@ function dailyPoints(
   notes: string[],
 ): { point: PerformancePoint; hours: number }[] {
   const quantityOf = new Map(tags.used.map((t) => [t.id, t.quantity]));
-  const days = new Map<number, { point: Partial<PerformancePoint> & { time: Date }; hours: number }>();
+  const days = new Map<number, DayOfMeans>();
   for (const row of rows) {
     const day = days.get(row.day.getTime()) ?? days.set(row.day.getTime(), { point: { time: row.day }, hours: 0 }).get(row.day.getTime())!;
-    const quantity = quantityOf.get(row.tagId)!;
-    if (quantity === 'concentrate_flow') day.point.qc = row.mean;
-    else {
-      day.point[requiredQuantities[quantity as RequiredQuantity]] = row.mean;
-      day.hours = Math.max(day.hours, row.hours);
-    }
+    addMean(day, row, quantityOf);
   }
   const out: { point: PerformancePoint; hours: number }[] = [];
-  for (const { point, hours } of days.values()) {
-    const p = { ...point, qc: point.qc ?? null } as PerformancePoint;
+  for (const day of days.values()) {
     try {
-      stageState(p, settings);
+      out.push({ point: checkedPoint(day, settings), hours: day.hours });
     } catch (err) {
-      notes.push(`The day of ${formatDay(p.time, timeZone)} is left out: ${(err as Error).message}.`);
-      continue;
+      notes.push(`The day of ${formatDay(day.point.time, timeZone)} is left out: ${(err as Error).message}.`);
     }
-    out.push({ point: p, hours });
   }
   return out.sort((x, y) => x.point.time.getTime() - y.point.time.getTime());
+}
+
+/**
+ * Whether a stage has a running day (a point `dailyPoints` keeps) at or before `until`. Reads the rows in
+ * day order, as `dailyMeansWhileRunning` gives them, and stops at the first such day or past `until`, so a
+ * long window is not read twice.
+ */
+function runsBy(rows: readonly DailyMean[], until: Date, tags: StageTags<PerformanceTag>, settings: Partial<PerformanceSettings>): boolean {
+  const quantityOf = new Map(tags.used.map((t) => [t.id, t.quantity]));
+  const valid = (day: DayOfMeans) => {
+    try {
+      checkedPoint(day, settings);
+      return true;
+    } catch {
+      return false;
+    }
+  };
+  let day: DayOfMeans | null = null;
+  for (const row of rows) {
+    if (day && row.day.getTime() !== day.point.time.getTime()) {
+      if (valid(day)) return true;
+      day = null;
+    }
+    if (row.day > until) return false;
+    day ??= { point: { time: row.day }, hours: 0 };
+    addMean(day, row, quantityOf);
+  }
+  return day !== null && valid(day);
 }
 
 /**
@@ -300,10 +343,10 @@ export function baselineLookback(
   const { resetTimes } = stageResets(rows, stageVessels(assets, stage), window.to, timeZone, settings);
   const anchor = baselineAnchor(resetTimes, rows.runStatusFrom, window.from);
   if (anchor === null) return null;
-  // Only a reset inside the window can make the first running day there matter; find it only then.
-  const inWindow = resetTimes.some((r) => r >= window.from && r < window.to);
-  const firstPoint = inWindow ? (dailyPoints(rows.days, tags, performanceSettingsOf(settings, options), timeZone, [])[0]?.point.time ?? window.to) : window.to;
-  if (!looksBack(anchor, resetTimes, window.from, firstPoint)) return null;
+  // `looksBack` with the window's first running day, found without building every point: a reset in the
+  // window comes before that day exactly when the earliest such reset has no running day at or before it.
+  const firstReset = resetTimes.find((r) => r >= window.from && r < window.to);
+  if (firstReset && !runsBy(rows.days, firstReset, tags, performanceSettingsOf(settings, options))) return null;
   return { from: anchor, to: new Date(Math.min(window.from.getTime(), addDays(anchor, 30).getTime())) };
 }
 
