@@ -1,11 +1,12 @@
-// Open work orders at an instant (the end of the site's data unless the query names one): which are
-// open, which overdue, and the backlog hours they carry — rows through db/queries, then shared/kpi/open-work.ts.
-import { openWork, overdueAfterDays } from '#shared/kpi/open-work.ts';
-import type { WorkOrderPriority, WorkOrderStatus, WorkOrderType } from '#shared/schemas/enums.ts';
+// Open work orders at an instant (the end of the site's data unless the query names one): the rows
+// through db/queries, then `buildOpenWorkOrders` (shared/kpi/open-work.ts) says which are open, which
+// overdue, and the backlog hours they carry.
+import { buildOpenWorkOrders } from '#shared/kpi/open-work.ts';
 import type { OpenWorkOrders, OpenWorkOrdersQuery } from '#shared/schemas/work-orders.ts';
 import type { Db } from '../db/client.ts';
 import { listWorkOrdersOpenAt } from '../db/queries/work-orders.ts';
 import { resolveScope } from './scope.ts';
+import { workOrderRecords } from './work-orders.ts';
 
 /**
  * GET /api/work-orders/open. `asOf` is the query's `to`, else the end of the site's data (samples
@@ -16,36 +17,12 @@ export async function getOpenWorkOrders(db: Db, query: OpenWorkOrdersQuery): Pro
   const scope = await resolveScope(db, { site: query.site, asset: query.asset, to: query.to, confidence: 0.9 });
   // The service may read the clock; only shared/ may not.
   const asOf = scope.to ?? new Date();
-  const codes = new Map(scope.assets.map((a) => [a.id, a.code]));
   const rows = await listWorkOrdersOpenAt(
     db.$client,
     scope.site.id,
     scope.inScope.map((a) => a.id),
     asOf,
   );
-  const summary = openWork(
-    rows.map((r) => ({
-      woNumber: r.woNumber,
-      asset: codes.get(r.assetId) ?? String(r.assetId),
-      type: r.type as WorkOrderType,
-      priority: r.priority as WorkOrderPriority,
-      status: r.status as WorkOrderStatus,
-      description: r.description,
-      reportedAt: r.reportedAt,
-      completedAt: r.completedAt,
-      labourHours: r.labourHours,
-    })),
-    asOf,
-  );
-  return {
-    site: scope.site.code,
-    ...(scope.asset ? { asset: scope.asset.code } : {}),
-    asOf: asOf.toISOString(),
-    total: summary.total,
-    overdue: summary.overdue,
-    hours: summary.hours,
-    withoutEstimate: summary.withoutEstimate,
-    overdueAfterDays,
-    workOrders: summary.orders.slice(0, query.limit).map((o) => ({ ...o, reportedAt: o.reportedAt.toISOString() })),
-  };
+  const input = { site: scope.site.code, asset: scope.asset?.code ?? null, workOrders: workOrderRecords(rows, scope.assets) };
+  return buildOpenWorkOrders(input, { asOf, limit: query.limit });
 }

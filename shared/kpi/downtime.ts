@@ -5,7 +5,7 @@
 // inspection work order on the asset or one below it; cause = failure code of the corrective work order
 // (same scope) whose out-of-service window overlaps it most. Everything is in UTC instants.
 
-import type { DowntimeEvent, DowntimePlantTotal, DowntimeTotal, ParetoRow } from '#shared/schemas/downtime.ts';
+import type { DowntimeEvent, DowntimePlantTotal, DowntimeReport, DowntimeTotal, ParetoRow } from '#shared/schemas/downtime.ts';
 import type { WorkOrderStatus, WorkOrderType } from '#shared/schemas/enums.ts';
 import {
   hoursBetween,
@@ -18,6 +18,7 @@ import {
   type RunStatusSample,
   type TimeWindow,
 } from './operating-time.ts';
+import type { WorkOrderRecord } from './work-orders.ts';
 
 /** An asset with a run-status tag whose stops are counted. */
 export interface DowntimeAssetInput {
@@ -46,15 +47,8 @@ export interface AssetNode {
   parent: string | null;
 }
 
-export interface DowntimeWorkOrder {
-  woNumber: string;
-  asset: string;
-  type: WorkOrderType;
-  status: WorkOrderStatus;
-  failureCode: string | null;
-  outOfServiceFrom: Date | null;
-  outOfServiceTo: Date | null;
-}
+/** What the downtime rules read of a work order. */
+export type DowntimeWorkOrder = Pick<WorkOrderRecord, 'woNumber' | 'asset' | 'type' | 'status' | 'failureCode' | 'outOfServiceFrom' | 'outOfServiceTo'>;
 
 export interface DowntimeSettings {
   /** Value of one m³ of permeate, in the plant's currency; null when not set (cost is then null). */
@@ -80,17 +74,8 @@ export interface StopSpan extends MsInterval {
 // The answer's parts are the types of its schema (shared/schemas/downtime.ts), not interfaces beside it.
 export type { DowntimeEvent, DowntimePlantTotal, DowntimeTotal, ParetoRow };
 
-export interface DowntimeResult {
-  from: string;
-  to: string;
-  events: DowntimeEvent[];
-  totals: DowntimeTotal[];
-  plant: DowntimePlantTotal;
-  paretoByCause: ParetoRow[];
-  paretoByAsset: ParetoRow[];
-  waterValuePerM3: number | null;
-  notes: string[];
-}
+/** The calculated part of the answer (shared/schemas/downtime.ts); `buildDowntimeReport` adds site, currency and provenance. */
+export type DowntimeResult = Pick<DowntimeReport, 'from' | 'to' | 'events' | 'totals' | 'plant' | 'paretoByCause' | 'paretoByAsset' | 'waterValuePerM3' | 'notes'>;
 
 export const UNKNOWN_CAUSE = 'unknown';
 
@@ -247,12 +232,7 @@ export function paretoTable(events: readonly DowntimeEvent[], keyOf: (e: Downtim
   const rows = [...groups.entries()].map(([key, list]) => ({
     key,
     ms: list.reduce((acc, e) => acc + msOf(e), 0),
-    events: list.length,
-    hours: sum(list.map((e) => e.hours)),
-    plannedHours: sum(list.filter((e) => e.planned).map((e) => e.hours)),
-    unplannedHours: sum(list.filter((e) => !e.planned).map((e) => e.hours)),
-    lostVolumeM3: sumOrNull(list.map((e) => e.lostVolumeM3)),
-    cost: sumOrNull(list.map((e) => e.cost)),
+    ...sumEvents(list),
   }));
   rows.sort((a, b) => b.ms - a.ms || (a.key < b.key ? -1 : a.key > b.key ? 1 : 0));
   let runningMs = 0;

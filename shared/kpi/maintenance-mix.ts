@@ -5,22 +5,17 @@
 // preventive and corrective man-hours, maintenance cost per unit of output, backlog (from memory; no
 // indicator numbers cited). The exact rules below are ours and are stated so any figure can be rebuilt.
 
-import type { WorkOrderStatus, WorkOrderType } from '#shared/schemas/enums.ts';
+import type { WorkOrderType } from '#shared/schemas/enums.ts';
+import type { MaintenanceMixReport } from '#shared/schemas/maintenance-mix.ts';
 import { agree, countOf } from '../text.ts';
 import { instantMs, windowMs, type TimeWindow } from './operating-time.ts';
+import type { WorkOrderRecord } from './work-orders.ts';
 
-export interface MixWorkOrder {
-  woNumber: string;
-  type: WorkOrderType;
-  status: WorkOrderStatus;
-  reportedAt: Date;
-  startedAt: Date | null;
-  completedAt: Date | null;
-  /** Booked labour hours of a closed order; the estimate of an open one. */
-  labourHours: number;
-  labourCost: number;
-  partsCost: number;
-}
+/** What the maintenance-mix rules read of a work order (`labourHours`: booked on a closed order, the estimate of an open one). */
+export type MixWorkOrder = Pick<
+  WorkOrderRecord,
+  'woNumber' | 'type' | 'status' | 'reportedAt' | 'startedAt' | 'completedAt' | 'labourHours' | 'labourCost' | 'partsCost'
+>;
 
 export interface MaintenanceMixInput {
   window: TimeWindow;
@@ -43,67 +38,13 @@ export const pmComplianceDefinition =
   'before the window end, divided by the preventive work orders raised in the window that were not cancelled ' +
   '(cancelled ones count as missed instead when that option is set).';
 
-export interface LabourMix {
-  plannedHours: number;
-  reactiveHours: number;
-  improvementHours: number;
-  totalHours: number;
-  /** Shares of totalHours, 0–1; null when no hours were booked. */
-  plannedShare: number | null;
-  reactiveShare: number | null;
-  improvementShare: number | null;
-  reason: string | null;
-  /** Closed work orders completed in the window whose hours and costs are counted. */
-  workOrders: string[];
-}
-
-export interface PmCompliance {
-  definition: string;
-  /** Preventive orders raised in the window (cancelled included). */
-  raised: number;
-  cancelled: number;
-  /** The denominator. */
-  due: number;
-  completedInWindow: number;
-  /** completedInWindow / due, 0–1; null when nothing was due. */
-  compliance: number | null;
-  reason: string | null;
-  completed: string[];
-  missed: string[];
-}
-
-export interface Backlog {
-  /** Work orders open at the window end (raised before it, not completed before it, not cancelled). */
-  workOrders: number;
-  hours: number;
-  /** Orders in the backlog with no labour-hour estimate (0 h): the backlog hours understate the work. */
-  withoutEstimate: number;
-  crewCapacityHoursPerWeek: number | null;
-  /** hours / weekly capacity; null without a positive capacity. */
-  weeks: number | null;
-  reason: string | null;
-  list: string[];
-}
-
-export interface MaintenanceCost {
-  labourCost: number;
-  partsCost: number;
-  totalCost: number;
-  producedM3: number | null;
-  /** totalCost / producedM3; null without production. */
-  costPerM3: number | null;
-  reason: string | null;
-}
-
-export interface MaintenanceMixResult {
-  from: string;
-  to: string;
-  labour: LabourMix;
-  pmCompliance: PmCompliance;
-  backlog: Backlog;
-  cost: MaintenanceCost;
-  notes: string[];
-}
+// The parts of the answer are the types of its schema (shared/schemas/maintenance-mix.ts), not interfaces beside it.
+export type LabourMix = MaintenanceMixReport['labour'];
+export type PmCompliance = MaintenanceMixReport['pmCompliance'];
+export type Backlog = MaintenanceMixReport['backlog'];
+export type MaintenanceCost = MaintenanceMixReport['cost'];
+/** The calculated part of the answer; `buildMaintenanceMixReport` adds site, asset, currency and provenance. */
+export type MaintenanceMixResult = Pick<MaintenanceMixReport, 'from' | 'to' | 'labour' | 'pmCompliance' | 'backlog' | 'cost' | 'notes'>;
 
 function nonNegative(value: number, what: string): void {
   if (typeof value !== 'number' || !Number.isFinite(value) || value < 0) {

@@ -15,7 +15,18 @@
 // samples, units converted on import: bar, m³/h, µS/cm, °C) and passes the candidate reset times
 // (element changes and cleanings) used to pick the baseline.
 
+import type { z } from 'zod';
 import { maintenanceCautions } from '../cautions.ts';
+import type {
+  feedBrineAverages,
+  normalizedPointSchema,
+  normalizedValuesSchema,
+  performanceAlertSchema,
+  performanceBaselineSchema,
+  performanceSettingsSchema,
+  performanceStageSchema,
+  stageStateSchema,
+} from '../schemas/performance.ts';
 import { agree, countOf } from '../text.ts';
 
 /** One operating point of a stage. Pressures in bar (gauge), flows in m³/h, conductivities in µS/cm, °C. */
@@ -42,31 +53,10 @@ export interface PerformancePoint {
   tempC: number;
 }
 
-export type FeedBrineAverage = 'log-mean' | 'arithmetic';
+export type FeedBrineAverage = (typeof feedBrineAverages)[number];
 
-export interface PerformanceSettings {
-  /** TDS per unit conductivity, mg/L per µS/cm (common practice: 0.67). */
-  tdsFactor: number;
-  /** Osmotic pressure per mg/L TDS, bar (1 psi per 100 mg/L = 0.000689475729 bar per mg/L). */
-  osmoticBarPerMgL: number;
-  /** TCF constant U below 25 °C, kelvin (common practice for polyamide: 3020). */
-  uBelow25K: number;
-  /** TCF constant U at or above 25 °C, kelvin (common practice for polyamide: 2640). */
-  uAtOrAbove25K: number;
-  feedBrineAverage: FeedBrineAverage;
-  /** Exponent of the average feed-brine flow ratio in normalized ΔP (1.5). */
-  dpFlowExponent: number;
-  /** Multiply normalized ΔP by the viscosity term 1 + k·(T − 25) (the variant; off by default). */
-  dpViscosityCorrection: boolean;
-  /** k of that viscosity term, per °C (0.017). */
-  dpViscosityPerC: number;
-  /** Alert when normalized permeate flow is this many % below the baseline or more (10). */
-  flowDropPct: number;
-  /** Alert when normalized ΔP is this many % above the baseline or more (15). */
-  dpRisePct: number;
-  /** Alert when normalized salt passage is this many % above the baseline or more (5). */
-  saltPassageRisePct: number;
-}
+/** Normalization constants and alert thresholds (shared/schemas/performance.ts says what each is). */
+export type PerformanceSettings = z.infer<typeof performanceSettingsSchema>;
 
 /**
  * Defaults. TDS factor, osmotic constant, U values, ΔP exponent and alert thresholds: common practice
@@ -239,36 +229,8 @@ export function viscosityTerm(tempC: number, perC = defaultPerformanceSettings.d
   return term;
 }
 
-/** Every intermediate of one point, in the units named. */
-export interface StageState {
-  time: string;
-  recovery: number;
-  /** Qc = Qf − Qp, m³/h. */
-  concentrateFlowM3h: number;
-  /** Measured Qc, m³/h, or null. */
-  measuredConcentrateFlowM3h: number | null;
-  /** 100 · (measured Qc − (Qf − Qp)) / Qf; null without a concentrate meter. */
-  concentrateFlowGapPct: number | null;
-  feedTdsMgL: number;
-  permeateTdsMgL: number;
-  /** Cc from the salt balance, mg/L. */
-  concentrateTdsMgL: number;
-  /** Feed-brine average concentration by the chosen method, mg/L. */
-  feedBrineTdsMgL: number;
-  feedBrineAverage: FeedBrineAverage;
-  osmoticFeedBrineBar: number;
-  osmoticPermeateBar: number;
-  /** ΔPfb = Pf − Pc, bar. */
-  differentialPressureBar: number;
-  netDrivingPressureBar: number;
-  tcf: number;
-  tempC: number;
-  permeateFlowM3h: number;
-  /** SP = 100 · Cp / Cf, %. */
-  saltPassagePct: number;
-  /** Qavg = (Qf + Qc)/2, m³/h. */
-  averageFeedBrineFlowM3h: number;
-}
+/** Every intermediate of one point, in the units named (shared/schemas/performance.ts). */
+export type StageState = z.infer<typeof stageStateSchema>;
 
 function checkPoint(point: PerformancePoint, what: string): void {
   if (!(point.time instanceof Date) || !Number.isFinite(point.time.getTime())) throw new RangeError(`${what}.time is not a valid date`);
@@ -322,25 +284,8 @@ export function stageState(point: PerformancePoint, settings: Partial<Performanc
   };
 }
 
-/** Normalized values of one point against a reference point, with % change from the reference. */
-export interface NormalizedValues {
-  /** Qp,norm = Qp · (NDPref/NDP) · (TCF(T)/TCF(Tref)), m³/h at reference NDP and temperature; null when an NDP ≤ 0. */
-  permeateFlowM3h: number | null;
-  /** SPnorm = SP · (Qp/Qp,ref) · (Cfb,ref/Cfb) · (Cf/Cf,ref), %. */
-  saltPassagePct: number;
-  /** ΔPnorm = ΔP · (Qavg,ref/Qavg)^1.5 [· (1 + 0.017(T − 25)) in the viscosity variant], bar. */
-  differentialPressureBar: number;
-  /** Baseline values the changes are measured against (Qp,ref; SPref; ΔPref [· viscosity term at Tref]). */
-  baselinePermeateFlowM3h: number;
-  baselineSaltPassagePct: number;
-  baselineDifferentialPressureBar: number;
-  /** 100 · (Qp,norm / Qp,ref − 1); null with the flow. */
-  permeateFlowChangePct: number | null;
-  saltPassageChangePct: number;
-  differentialPressureChangePct: number;
-  /** Why permeateFlowM3h is null, else null. */
-  nullReason: string | null;
-}
+/** Normalized values of one point against a reference point, with % change from the reference (shared/schemas/performance.ts). */
+export type NormalizedValues = z.infer<typeof normalizedValuesSchema>;
 
 /**
  * Normalizes one stage state against a reference state (ASTM D4516 structure; sources above):
@@ -432,14 +377,9 @@ export function elementChangeOuts(installs: readonly Date[], positions: number, 
   return out;
 }
 
-export type BaselineReason = 'first-running-day' | 'after-reset';
-
-export interface BaselineSetBy {
-  kind: 'first-running-day' | BaselineReset['kind'];
-  at: string | null;
-  workOrder: string | null;
-  elements: number | null;
-}
+type Baseline = z.infer<typeof performanceBaselineSchema>;
+export type BaselineReason = Baseline['reason'];
+export type BaselineSetBy = Baseline['setBy'];
 
 /** Which event set a baseline that follows a reset at `resetAt`: the cleaning or change-out dated then (a cleaning first). */
 export function baselineSetBy(resetAt: string | null, resets: readonly BaselineReset[]): BaselineSetBy {
@@ -449,13 +389,8 @@ export function baselineSetBy(resetAt: string | null, resets: readonly BaselineR
   return { kind: event.kind, at: event.at.toISOString(), workOrder: event.workOrder, elements: event.elements };
 }
 
-export interface BaselineChoice {
-  index: number;
-  time: string;
-  reason: BaselineReason;
-  /** The element change or cleaning the baseline follows; null for the first running day. */
-  resetAt: string | null;
-}
+/** The baseline point of a series and why it is the one (the schema's baseline, without its state and event). */
+export type BaselineChoice = Pick<Baseline, 'index' | 'time' | 'reason' | 'resetAt'>;
 
 /**
  * Picks the baseline point of a time-sorted series: the first point at or after the latest reset time
@@ -491,37 +426,14 @@ export function selectBaseline(points: readonly { time: Date }[], resetTimes: re
   return { index, time: new Date(times[index]!).toISOString(), reason: 'after-reset', resetAt: new Date(reset).toISOString() };
 }
 
-export type PerformanceAlertKind = 'permeate-flow-drop' | 'differential-pressure-rise' | 'salt-passage-rise';
+export type PerformanceAlert = z.infer<typeof performanceAlertSchema>;
+export type PerformanceAlertKind = PerformanceAlert['kind'];
+export type NormalizedPoint = z.infer<typeof normalizedPointSchema>;
 
-export interface PerformanceAlert {
-  kind: PerformanceAlertKind;
-  /** Time of the latest point, which crosses the threshold. */
-  time: string;
-  /** First point of the unbroken run of crossing points that ends at the latest point. */
-  since: string;
-  changePct: number;
-  thresholdPct: number;
-  value: number;
-  baselineValue: number;
-  unit: 'm3/h' | '%' | 'bar';
-  message: string;
-  recommendation: string;
-  cautions: string[];
-}
-
-export interface NormalizedPoint {
-  state: StageState;
-  normalized: NormalizedValues;
-}
-
-export interface PerformanceResult {
-  baseline: (BaselineChoice & { state: StageState; setBy: BaselineSetBy }) | null;
+/** One stage's normalized series: the parts of the stage's answer (shared/schemas/performance.ts) the maths gives. */
+export type PerformanceResult = Pick<z.infer<typeof performanceStageSchema>, 'baseline' | 'latest' | 'alerts' | 'settings' | 'notes'> & {
   points: NormalizedPoint[];
-  latest: NormalizedPoint | null;
-  alerts: PerformanceAlert[];
-  settings: PerformanceSettings;
-  notes: string[];
-}
+};
 
 interface AlertRule {
   kind: PerformanceAlertKind;

@@ -13,9 +13,9 @@ import {
   operatingTimeFromRunStatus,
   type OperatingTimeSource,
   type OutOfServiceWindow,
-  type RunStatusSample,
 } from './operating-time.ts';
 import { capped } from './provenance.ts';
+import type { RunStatusHistory } from './run-status.ts';
 import {
   inherentAvailability,
   meanActiveRepairHours,
@@ -56,17 +56,8 @@ export interface ReliabilityWorkOrder {
   outOfServiceTo: Date | null;
 }
 
-/** What is known of one run-status tag over the window (server/services/run-status.ts builds it). */
-export interface RunStatusHistoryInput {
-  tag: { id: number; name: string };
-  /** Edge samples inside the window. */
-  samples: readonly RunStatusSample[];
-  /** The state at the window start when the data began before it; null otherwise. */
-  priorSample: RunStatusSample | null;
-  /** First and last good run-status sample of the tag; null without good data. */
-  dataFrom: Date | null;
-  dataUntil: Date | null;
-}
+/** What is known of one run-status tag over the window (shared/kpi/run-status.ts's history, read by server/services/run-status.ts), with the tag it is of. */
+export type RunStatusHistoryInput = Pick<RunStatusHistory, 'samples' | 'priorSample' | 'dataFrom' | 'dataUntil'> & { tag: { id: number; name: string } };
 
 /** Everything a reliability answer is computed from, as plain rows. */
 export interface ReliabilityInput {

@@ -47,3 +47,61 @@ export function edgeSamples(
   // Ends before starts: should a stop end where the next begins, the stopped state wins that instant.
   return { samples: [...first, ...ends, ...starts], priorSample };
 }
+
+/** What the derived tables hold of one run-status tag, as server/services/run-status.ts reads them. */
+export interface RunStatusRows<S extends StopInterval = StopInterval> {
+  /** First and last sample instant any import brought for the tag (samples of every quality); null without. */
+  coverage: { from: Date; to: Date } | null;
+  /** First hour with a good sample and the instant of the last good sample; null without good data. */
+  good: { firstHour: Date; lastTs: Date } | null;
+  /** Stops sharing time with the window, in time order. */
+  stops: readonly S[];
+  /** End of the tag's last stop that ended before the window start; null when none did. */
+  lastStopEndBefore: Date | null;
+}
+
+/** What is known of one run-status tag over a window, in the form the shared calculations take. */
+export interface RunStatusHistory<S extends StopInterval = StopInterval> {
+  /** Edge samples inside the window, synthesized from the stop events (see `edgeSamples`). */
+  samples: RunStatusSample[];
+  /** Carries the state at the window start when the data began before it; null otherwise. */
+  priorSample: RunStatusSample | null;
+  /** First and last good run-status sample of the tag (any time, not only the window); null without good data. */
+  dataFrom: Date | null;
+  dataUntil: Date | null;
+  /** Stop events sharing time with the window. */
+  stops: readonly S[];
+}
+
+/**
+ * The span of a run-status tag's data: where the sample coverage and the good-quality rollups agree,
+ * from the later of its first covered instant and its first good hour to the earlier of its last
+ * covered instant and its last good sample. Null without good data, or when the two do not overlap.
+ */
+export function runStatusDataSpan(
+  coverage: RunStatusRows['coverage'],
+  good: RunStatusRows['good'],
+): { from: Date; until: Date } | null {
+  if (!good) return null;
+  const from = coverage && coverage.from > good.firstHour ? coverage.from : good.firstHour;
+  const until = coverage && coverage.to < good.lastTs ? coverage.to : good.lastTs;
+  return until >= from ? { from, until } : null;
+}
+
+/**
+ * The run-status history of one tag over [from, to) from its derived rows: the data span
+ * (`runStatusDataSpan`) and the edge samples of its stops (`edgeSamples`). `note` names a tag without
+ * good data (rows still waiting for refresh are the answer's `warnings`: server/services/freshness.ts).
+ */
+export function runStatusHistory<S extends StopInterval>(
+  tagName: string,
+  rows: RunStatusRows<S>,
+  window: { from: Date; to: Date },
+): { history: RunStatusHistory<S>; note: string | null } {
+  const data = runStatusDataSpan(rows.coverage, rows.good);
+  const edges = edgeSamples(rows.stops, data, window, rows.lastStopEndBefore);
+  return {
+    history: { ...edges, dataFrom: data?.from ?? null, dataUntil: data?.until ?? null, stops: rows.stops },
+    note: data ? null : `${tagName} has no good-quality run-status data.`,
+  };
+}

@@ -1,6 +1,7 @@
 // Time to complete maintenance jobs, from the job step log: per job, per group (guided or not,
 // crew, procedure) and as a learning curve over time.
-import { mean, type NullReason, quantileMethod, quantileType7, sampleSd } from './stats.ts';
+import type { TimeToCompleteReport } from '../schemas/time-to-complete.ts';
+import { mean, quantileMethod, quantileType7, sampleSd } from './stats.ts';
 
 const HOUR_MS = 3_600_000;
 
@@ -35,19 +36,8 @@ export interface Job {
 
 export type SkipReason = 'non-positive-duration' | 'invalid-time';
 
-export interface GroupStats {
-  /** 'all', 'guided=yes', 'guided=no', 'crew=…' or 'procedure=…'. */
-  key: string;
-  n: number;
-  meanHours: number | null;
-  medianHours: number | null;
-  p90Hours: number | null;
-  /** Sample standard deviation (n − 1); null below two jobs. */
-  sdHours: number | null;
-  minHours: number | null;
-  maxHours: number | null;
-  reason?: NullReason;
-}
+/** One group's figures: the schema's type (shared/schemas/time-to-complete.ts). */
+export type GroupStats = TimeToCompleteReport['groups'][number];
 
 export interface LearningBucket {
   label: string;

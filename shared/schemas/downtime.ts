@@ -60,7 +60,7 @@ export const paretoRowSchema = z.object({
 });
 
 export const downtimeReportSchema = z.object({
-  site: z.string().optional(),
+  site: z.string(),
   ...freshnessShape,
   from: isoInstantSchema,
   to: isoInstantSchema,
@@ -71,9 +71,9 @@ export const downtimeReportSchema = z.object({
   paretoByCause: z.array(paretoRowSchema),
   paretoByAsset: z.array(paretoRowSchema),
   waterValuePerM3: money.nullable(),
-  currency: z.string().optional(),
+  currency: z.string(),
   notes: z.array(z.string()),
-  provenance: provenanceSchema.optional(),
+  provenance: provenanceSchema,
 });
 export type DowntimeReport = z.infer<typeof downtimeReportSchema>;
 export type DowntimeEvent = z.infer<typeof downtimeEventSchema>;

@@ -16,19 +16,24 @@ export const labourMixSchema = z.object({
   reactiveHours: hours,
   improvementHours: hours,
   totalHours: hours,
+  /** Shares of totalHours, 0–1; null when no hours were booked. */
   plannedShare: fraction.nullable(),
   reactiveShare: fraction.nullable(),
   improvementShare: fraction.nullable(),
   reason,
+  /** Closed work orders completed in the window whose hours and costs are counted. */
   workOrders: z.array(z.string()),
 });
 
 export const pmComplianceSchema = z.object({
   definition: z.string(),
+  /** Preventive orders raised in the window (cancelled included). */
   raised: count,
   cancelled: count,
+  /** The denominator. */
   due: count,
   completedInWindow: count,
+  /** completedInWindow / due, 0–1; null when nothing was due. */
   compliance: fraction.nullable(),
   reason,
   completed: z.array(z.string()),
@@ -36,10 +41,13 @@ export const pmComplianceSchema = z.object({
 });
 
 export const backlogSchema = z.object({
+  /** Work orders open at the window end (raised before it, not completed before it, not cancelled). */
   workOrders: count,
   hours,
+  /** Orders in the backlog with no labour-hour estimate (0 h): the backlog hours understate the work. */
   withoutEstimate: count,
   crewCapacityHoursPerWeek: z.number().nonnegative().nullable(),
+  /** hours / weekly capacity; null without a positive capacity. */
   weeks: z.number().nonnegative().nullable(),
   reason,
   list: z.array(z.string()),
@@ -50,12 +58,13 @@ export const maintenanceCostSchema = z.object({
   partsCost: money,
   totalCost: money,
   producedM3: m3.nullable(),
+  /** totalCost / producedM3; null without production. */
   costPerM3: money.nullable(),
   reason,
 });
 
 export const maintenanceMixReportSchema = z.object({
-  site: z.string().optional(),
+  site: z.string(),
   ...freshnessShape,
   asset: z.string().optional(),
   from: isoInstantSchema,
@@ -64,8 +73,8 @@ export const maintenanceMixReportSchema = z.object({
   pmCompliance: pmComplianceSchema,
   backlog: backlogSchema,
   cost: maintenanceCostSchema,
-  currency: z.string().optional(),
+  currency: z.string(),
   notes: z.array(z.string()),
-  provenance: provenanceSchema.optional(),
+  provenance: provenanceSchema,
 });
 export type MaintenanceMixReport = z.infer<typeof maintenanceMixReportSchema>;

@@ -17,14 +17,17 @@ export const timeToCompleteQuerySchema = windowQuerySchema.extend({
 export type TimeToCompleteQuery = z.infer<typeof timeToCompleteQuerySchema>;
 
 export const timeToCompleteGroupSchema = z.object({
+  /** 'all', 'guided=yes', 'guided=no', 'crew=…' or 'procedure=…'. */
   key: z.string().regex(/^(all|guided=(yes|no)|crew=.+|procedure=.+)$/),
   n: count,
   meanHours: hours.nullable(),
   medianHours: hours.nullable(),
   p90Hours: hours.nullable(),
-  sdHours: hours.nullable().optional(),
-  minHours: hours.nullable().optional(),
-  maxHours: hours.nullable().optional(),
+  /** Sample standard deviation (n − 1); null below two jobs. */
+  sdHours: hours.nullable(),
+  minHours: hours.nullable(),
+  maxHours: hours.nullable(),
+  /** Why the figures are null (a group without jobs); absent when they are not. */
   reason: nullReasonSchema.optional(),
 });
 
@@ -34,15 +37,17 @@ export const jobSchema = z.object({
   completedAt: isoInstantSchema,
   hours: z.number().positive(),
   guided: z.boolean(),
-  steps: z.number().int().positive().optional(),
-  crew: z.string().nullable().optional(),
-  procedure: z.string().nullable().optional(),
+  steps: z.number().int().positive(),
+  crew: z.string().nullable(),
+  procedure: z.string().nullable(),
 });
 
 const learningBucketSchema = z.object({
   label: z.string(),
+  /** Period buckets: the period's bounds; sequence buckets: first and last job's start. */
   start: isoInstantSchema.nullable(),
   end: isoInstantSchema.nullable(),
+  /** Sequence buckets only: 1-based numbers of the first and last job in start order. */
   firstJob: z.number().int().positive().optional(),
   lastJob: z.number().int().positive().optional(),
   n: count,
@@ -51,23 +56,20 @@ const learningBucketSchema = z.object({
 });
 
 export const timeToCompleteReportSchema = z.object({
-  site: z.string().optional(),
+  site: z.string(),
   ...freshnessShape,
-  from: isoInstantSchema.nullable().optional(),
-  to: isoInstantSchema.nullable().optional(),
+  from: isoInstantSchema.nullable(),
+  to: isoInstantSchema.nullable(),
   quantileMethod: z.literal(quantileMethodType7),
   groups: z.array(timeToCompleteGroupSchema),
   jobs: z.array(jobSchema),
-  skipped: z
-    .array(z.object({ woNumber: z.string(), reason: z.enum(['non-positive-duration', 'invalid-time']) }))
-    .optional(),
-  learningCurve: z
-    .object({ byPeriod: z.array(learningBucketSchema), bySequence: z.array(learningBucketSchema) })
-    .optional(),
+  /** Jobs left out, with why: a duration that is not positive, or an invalid time. */
+  skipped: z.array(z.object({ woNumber: z.string(), reason: z.enum(['non-positive-duration', 'invalid-time']) })),
+  learningCurve: z.object({ byPeriod: z.array(learningBucketSchema), bySequence: z.array(learningBucketSchema) }),
   /** How a job's procedure is named. */
-  procedureDefinition: z.string().optional(),
+  procedureDefinition: z.string(),
   /** Element-replacement jobs are vessel work: the usual cautions (shared/cautions.ts). */
-  cautions: z.array(z.string()).optional(),
-  provenance: provenanceSchema.optional(),
+  cautions: z.array(z.string()),
+  provenance: provenanceSchema,
 });
 export type TimeToCompleteReport = z.infer<typeof timeToCompleteReportSchema>;

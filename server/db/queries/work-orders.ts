@@ -1,23 +1,16 @@
+import type { WorkOrderRecord } from '#shared/kpi/work-orders.ts';
 import type { Queryable } from './queryable.ts';
 
-export interface WorkOrderValues {
-  woNumber: string;
+/**
+ * A work order as the table holds it: the shared WorkOrderRecord with its asset's id in place of its code,
+ * and type, priority and status as the text the table's checks hold to shared/schemas/enums.ts.
+ */
+export type WorkOrderValues = Omit<WorkOrderRecord, 'asset' | 'type' | 'priority' | 'status'> & {
   assetId: number;
   type: string;
   priority: string;
   status: string;
-  failureCode: string | null;
-  description: string;
-  reportedAt: Date;
-  startedAt: Date | null;
-  completedAt: Date | null;
-  outOfServiceFrom: Date | null;
-  outOfServiceTo: Date | null;
-  labourHours: number;
-  labourCost: number;
-  partsCost: number;
-  crew: string | null;
-}
+};
 
 /** The columns of a work order as WorkOrderValues (plus id), for every query below. */
 const workOrderColumns = `id, wo_number as "woNumber", asset_id as "assetId", type, priority, status, failure_code as "failureCode",

@@ -36,7 +36,7 @@ const result = downtimeReport({
   settings: { waterValuePerM3: 0.85 },
 });
 const report = { ...downtimeReportSchema.parse({
-  ...freshAnswer, ...result, site: 'OPS', currency: 'EUR' }), totals: result.totals.map((r) => ({ ...r, ratedPermeateFrom: 'TR1' })) };
+  ...freshAnswer, ...result, site: 'OPS', currency: 'EUR', provenance: { workOrders: ['WO-1', 'WO-4'], tags: ['TR1.RUN'], windows: [] } }), totals: result.totals.map((r) => ({ ...r, ratedPermeateFrom: 'TR1' })) };
 
 describe('formatDowntime', () => {
   const text = formatDowntime(report);

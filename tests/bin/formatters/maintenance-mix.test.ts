@@ -16,6 +16,7 @@ const report = maintenanceMixReportSchema.parse({
   cost: { labourCost: 480, partsCost: 120, totalCost: 600, producedM3: null, costPerM3: null, reason: 'No permeate_flow tag on train T2.' },
   currency: 'EUR',
   notes: ['1 closed work order(s) in the window have no labour hours booked.'],
+  provenance: { workOrders: ['W1', 'W2', 'W3', 'W4', 'W5'], workOrderCount: 5, tags: [], trains: ['T1'], windows: [] },
 });
 
 const cells = (line: string) => line.split('│').map((c) => c.trim()).filter(Boolean);

@@ -12,12 +12,16 @@ const report = timeToCompleteReportSchema.parse({
   to: '2022-01-01T00:00:00.000Z',
   quantileMethod: quantileMethodType7,
   groups: [
-    { key: 'all', n: 10, meanHours: 9.35, medianHours: 6.75, p90Hours: 17.4 },
-    { key: 'guided=yes', n: 6, meanHours: 5.25, medianHours: 5.25, p90Hours: 7.75 },
-    { key: 'guided=no', n: 0, meanHours: null, medianHours: null, p90Hours: null, reason: 'no-jobs' },
+    { key: 'all', n: 10, meanHours: 9.35, medianHours: 6.75, p90Hours: 17.4, sdHours: 8.389974176, minHours: 2.5, maxHours: 30 },
+    { key: 'guided=yes', n: 6, meanHours: 5.25, medianHours: 5.25, p90Hours: 7.75, sdHours: 2.296736817, minHours: 2.5, maxHours: 8 },
+    { key: 'guided=no', n: 0, meanHours: null, medianHours: null, p90Hours: null, sdHours: null, minHours: null, maxHours: null, reason: 'no-jobs' },
   ],
-  jobs: [{ woNumber: 'WO-01', startedAt: '2021-01-04T07:00:00.000Z', completedAt: '2021-01-04T11:30:00.000Z', hours: 4.5, guided: true }],
+  jobs: [{ woNumber: 'WO-01', startedAt: '2021-01-04T07:00:00.000Z', completedAt: '2021-01-04T11:30:00.000Z', hours: 4.5, guided: true, steps: 2, crew: 'crew-a', procedure: 'element replacement' }],
+  skipped: [],
   learningCurve: { byPeriod: [{ label: '2021-Q1', start: '2020-12-31T23:00:00.000Z', end: '2021-03-31T22:00:00.000Z', n: 3, medianHours: 12, meanHours: 15.5 }], bySequence: [] },
+  procedureDefinition: 'procedure = kind of job',
+  cautions: [...vesselWorkCautions],
+  provenance: { workOrders: ['WO-01'], workOrderCount: 10, tags: [], windows: [] },
 });
 
 const cells = (line: string) => line.split('│').map((c) => c.trim()).filter(Boolean);

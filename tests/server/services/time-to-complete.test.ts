@@ -4,7 +4,7 @@ import { beforeFreshnessSchema } from '#shared/schemas/common.ts';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { vesselWorkCautions } from '#shared/cautions.ts';
 import { quantileMethodType7, timeToCompleteQuerySchema, timeToCompleteReportSchema } from '#shared/schemas/time-to-complete.ts';
-import { getTimeToComplete, procedureOf, type TimeToCompleteAnswer } from '#server/services/time-to-complete.ts';
+import { getTimeToComplete, type TimeToCompleteAnswer } from '#server/services/time-to-complete.ts';
 import { refresh } from '#server/jobs/refresh.ts';
 import { createTestDatabase, type TestDatabase } from '../../setup/db.ts';
 import { importText } from '../importers/helpers.ts';
@@ -122,12 +122,6 @@ describe('time to complete', () => {
     // pump corrective: 16 30 → mean 23, median 23, h = 0.9 → 16 + 0.9·14 = 28.6.
     expect(f['procedure=pump corrective']).toEqual(close([2, 23, 23, 28.6]));
     expect(f['procedure=vessel inspection']).toEqual(close([1, 4, 4, 4]));
-  });
-
-  it('names procedures from the asset kind and the work-order type', () => {
-    expect(procedureOf({ assetKind: 'vessel', type: 'corrective' })).toBe('element replacement');
-    expect(procedureOf({ assetKind: 'vessel', type: 'inspection' })).toBe('vessel inspection');
-    expect(procedureOf({ assetKind: 'filter', type: 'preventive' })).toBe('filter preventive');
   });
 
   it('draws the learning curve by calendar quarter in the site zone', async () => {

@@ -1,4 +1,3 @@
-import { beforeFreshnessSchema } from '#shared/schemas/common.ts';
 import { describe, expect, it } from 'vitest';
 import { maintenanceMix, pmComplianceDefinition, type MaintenanceMixInput, type MixWorkOrder } from '#shared/kpi/maintenance-mix.ts';
 import { maintenanceMixQuerySchema, maintenanceMixReportSchema } from '#shared/schemas/maintenance-mix.ts';
@@ -168,10 +167,11 @@ describe('degenerate input: null with a reason, never NaN', () => {
 });
 
 describe('answer and query schemas', () => {
-  it('accepts the answer, including one full of nulls', () => {
-    expect(() => beforeFreshnessSchema(maintenanceMixReportSchema).parse(maintenanceMix(input))).not.toThrow();
+  it('accepts the parts of the answer, including ones full of nulls', () => {
+    const parts = maintenanceMixReportSchema.pick({ from: true, to: true, labour: true, pmCompliance: true, backlog: true, cost: true, notes: true });
+    expect(() => parts.parse(maintenanceMix(input))).not.toThrow();
     const empty = maintenanceMix({ window, workOrders: [], crewCapacityHoursPerWeek: null, producedM3: null });
-    expect(() => beforeFreshnessSchema(maintenanceMixReportSchema).parse(empty)).not.toThrow();
+    expect(() => parts.parse(empty)).not.toThrow();
   });
 
   it('parses the query with its default', () => {

@@ -1,6 +1,7 @@
 // shared/kpi/open-work.ts: open at an instant, overdue by priority age limits, order and edges. Hand-worked.
 import { describe, expect, it } from 'vitest';
-import { openWork, type OpenWorkInput } from '#shared/kpi/open-work.ts';
+import { buildOpenWorkOrders, openWork, overdueAfterDays, type OpenWorkInput } from '#shared/kpi/open-work.ts';
+import { openWorkOrdersSchema } from '#shared/schemas/work-orders.ts';
 
 const at = new Date('2025-03-01T00:00:00Z');
 const order = (o: Partial<OpenWorkInput> & Pick<OpenWorkInput, 'woNumber' | 'reportedAt'>): OpenWorkInput => ({
@@ -46,5 +47,32 @@ describe('openWork', () => {
     );
     expect(r.orders.map((o) => o.woNumber)).toEqual(['F']);
     expect(r).toMatchObject({ total: 1, overdue: 0, hours: 0, withoutEstimate: 1 });
+  });
+});
+
+describe('buildOpenWorkOrders', () => {
+  const orders = [
+    order({ woNumber: 'G', priority: 'low', reportedAt: new Date('2025-02-27T00:00:00Z'), labourHours: 2 }), // 2 d, not overdue
+    order({ woNumber: 'H', priority: 'emergency', reportedAt: new Date('2025-02-26T00:00:00Z'), labourHours: 3 }), // 3 d > 1 d: overdue
+    order({ woNumber: 'I', priority: 'medium', reportedAt: new Date('2025-02-28T00:00:00Z'), labourHours: 0 }), // 1 d, no estimate
+  ];
+
+  it('lists the most pressing orders up to the limit, and counts every open one', () => {
+    const r = buildOpenWorkOrders({ site: 'PLANT', asset: 'P1', workOrders: orders }, { asOf: at, limit: 2 });
+    // Exactly the schema's answer: parsing (which drops undeclared keys) changes nothing.
+    expect(openWorkOrdersSchema.parse(r)).toEqual(r);
+    // Overdue first (H), then by priority: medium (I) before low (G); 2 + 3 + 0 = 5 h, one without an estimate.
+    expect(r).toMatchObject({ site: 'PLANT', asset: 'P1', asOf: '2025-03-01T00:00:00.000Z', total: 3, overdue: 1, hours: 5, withoutEstimate: 1, overdueAfterDays });
+    expect(r.workOrders.map((o) => [o.woNumber, o.reportedAt, o.ageDays, o.overdue])).toEqual([
+      ['H', '2025-02-26T00:00:00.000Z', 3, true],
+      ['I', '2025-02-28T00:00:00.000Z', 1, false],
+    ]);
+  });
+
+  it('names no asset for the whole site, and gives zeros without orders', () => {
+    const r = buildOpenWorkOrders({ site: 'PLANT', asset: null, workOrders: [] }, { asOf: at, limit: 10 });
+    expect(openWorkOrdersSchema.parse(r)).toEqual(r);
+    expect(r).not.toHaveProperty('asset');
+    expect(r).toMatchObject({ total: 0, overdue: 0, hours: 0, withoutEstimate: 0, workOrders: [] });
   });
 });

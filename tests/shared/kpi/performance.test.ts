@@ -26,7 +26,7 @@ import {
   type PerformancePoint,
   type PerformanceSettings,
 } from '#shared/kpi/performance.ts';
-import { performanceQuerySchema, performanceStageSchema } from '#shared/schemas/performance.ts';
+import { performanceQuerySchema } from '#shared/schemas/performance.ts';
 
 /** |actual − expected| ≤ rel·|expected|, with a readable failure message. */
 function expectRel(actual: number | null | undefined, expected: number, rel: number, label = ''): void {
@@ -377,19 +377,7 @@ describe('degenerate input', () => {
   });
 });
 
-describe('answer and query schemas', () => {
-  it('accepts the answer for a stage with alerts and for an empty stage', () => {
-    const full = normalizePerformance([exampleA.reference, exampleA.actual]);
-    expect(() => performanceStageSchema.parse({ asset: 'RO1-S1', ...full })).not.toThrow();
-    expect(() => performanceStageSchema.parse({ asset: 'RO1-S1', ...normalizePerformance([]) })).not.toThrow();
-  });
-
-  it('refuses an alert without cautions', () => {
-    const full = normalizePerformance([exampleA.reference, exampleA.actual]);
-    const stripped = { ...full, alerts: full.alerts.map((a) => ({ ...a, cautions: [] })) };
-    expect(performanceStageSchema.safeParse({ asset: 'RO1-S1', ...stripped }).success).toBe(false);
-  });
-
+describe('query schema', () => {
   it('parses the query with defaults and refuses an unknown average', () => {
     expect(performanceQuerySchema.parse({ asset: 'RO1', viscosityCorrection: 'true' })).toMatchObject({
       asset: 'RO1',

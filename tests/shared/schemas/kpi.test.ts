@@ -4,7 +4,7 @@ import { vesselWorkCautions } from '#shared/cautions.ts';
 import { fitWeibull, kaplanMeier, weibullLifeStats, weibullMedianRankRegression } from '#shared/kpi/element-life.ts';
 import { mtbfWithBounds, mttrHours, inherentAvailability } from '#shared/kpi/reliability.ts';
 import { nullReasonMessages, nullReasons } from '#shared/kpi/stats.ts';
-import { timeToComplete } from '#shared/kpi/time-to-complete.ts';
+import { buildTimeToCompleteReport } from '#shared/kpi/time-to-complete-report.ts';
 import { windowQuerySchema } from '#shared/schemas/common.ts';
 import { elementLifeQuerySchema, elementLifeReportSchema } from '#shared/schemas/element-life.ts';
 import { forecastQuerySchema, forecastReportSchema } from '#shared/schemas/forecast.ts';
@@ -216,36 +216,14 @@ describe('answers follow docs/design.md §7', () => {
   });
 
   it('time-to-complete: quantileMethod, groups and jobs with ISO times', () => {
-    const result = timeToComplete({
-      steps: [
-        {
-          woNumber: 'WO-7',
-          step: 1,
-          startedAt: new Date('2025-03-01T08:00:00Z'),
-          completedAt: new Date('2025-03-01T09:00:00Z'),
-          guided: true,
-        },
-        {
-          woNumber: 'WO-7',
-          step: 2,
-          startedAt: new Date('2025-03-01T09:00:00Z'),
-          completedAt: new Date('2025-03-01T11:00:00Z'),
-          guided: false,
-        },
-      ],
-    });
-    const answer = {
-      ...freshAnswer,
-      quantileMethod: result.quantileMethod,
-      groups: result.groups,
-      jobs: result.jobs.map((j) => ({
-        ...j,
-        startedAt: j.startedAt.toISOString(),
-        completedAt: j.completedAt.toISOString(),
-      })),
-    };
+    const job = { woNumber: 'WO-7', type: 'corrective', crew: null, assetKind: 'pump', guided: true, steps: 2 };
+    const result = buildTimeToCompleteReport(
+      { site: 'PLANT', timeZone: 'UTC', workOrderExtent: { from: null, to: null }, jobs: [{ ...job, startedAt: new Date('2025-03-01T08:00:00Z'), completedAt: new Date('2025-03-01T11:00:00Z') }] },
+      { from: null, to: null },
+    );
+    const answer = { ...freshAnswer, ...result };
     const parsed = timeToCompleteReportSchema.parse(answer);
-    expect(parsed.jobs[0]).toMatchObject({ woNumber: 'WO-7', hours: 3, guided: true });
+    expect(parsed.jobs[0]).toMatchObject({ woNumber: 'WO-7', startedAt: '2025-03-01T08:00:00.000Z', hours: 3, guided: true });
     expect(timeToCompleteReportSchema.safeParse({ ...answer, quantileMethod: 'type 6' }).success).toBe(false);
   });
 

@@ -1,9 +1,17 @@
 import type { ReactNode } from 'react';
 import { Card } from '../../../components/ui/card.tsx';
+import { CardTable, type CardTableColumn } from '../../../components/ui/card-table.tsx';
 import { formatHours, formatMoney, formatNumber, formatShare, formatVolume } from '../../../lib/format.ts';
 import { useDowntime, type DowntimeParams } from '../api/get-downtime.ts';
 import { causeLabel } from '../utils/labels.ts';
 import { FreshnessBanner } from '../../../components/ui/freshness-banner.tsx';
+
+const summaryColumns: CardTableColumn[] = [
+  { header: 'Asset' },
+  { header: 'Down time', align: 'right' },
+  { header: 'Lost permeate', align: 'right' },
+  { header: 'Cost', align: 'right' },
+];
 
 /** Dashboard: down time, lost permeate and its cost by asset, and the causes that took the most hours. */
 export function DowntimeSummaryCard({ params, currency, footer }: { params: DowntimeParams; currency: string; footer?: ReactNode }) {
@@ -17,37 +25,18 @@ export function DowntimeSummaryCard({ params, currency, footer }: { params: Down
       {assets.length === 0 ? (
         <p className="text-sm text-basin-600">No stops in this window.</p>
       ) : (
-        <table className="w-full text-sm">
-          <caption className="sr-only">Down time by asset</caption>
-          <thead>
-            <tr className="text-left text-xs text-basin-600">
-              <th scope="col" className="pb-1 font-normal">
-                Asset
+        <CardTable caption="Down time by asset" columns={summaryColumns}>
+          {assets.map((t) => (
+            <tr key={t.asset} className="border-t border-basin-100">
+              <th scope="row" className="py-1 text-left font-mono text-xs font-bold">
+                {t.asset}
               </th>
-              <th scope="col" className="pb-1 text-right font-normal">
-                Down time
-              </th>
-              <th scope="col" className="pb-1 text-right font-normal">
-                Lost permeate
-              </th>
-              <th scope="col" className="pb-1 text-right font-normal">
-                Cost
-              </th>
+              <td className="py-1 text-right font-bold">{formatHours(t.hours, 0)}</td>
+              <td className="py-1 text-right">{formatVolume(t.lostVolumeM3)}</td>
+              <td className="py-1 text-right">{formatMoney(t.cost, currency)}</td>
             </tr>
-          </thead>
-          <tbody className="tabular-nums">
-            {assets.map((t) => (
-              <tr key={t.asset} className="border-t border-basin-100">
-                <th scope="row" className="py-1 text-left font-mono text-xs font-bold">
-                  {t.asset}
-                </th>
-                <td className="py-1 text-right font-bold">{formatHours(t.hours, 0)}</td>
-                <td className="py-1 text-right">{formatVolume(t.lostVolumeM3)}</td>
-                <td className="py-1 text-right">{formatMoney(t.cost, currency)}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
+          ))}
+        </CardTable>
       )}
       {causes.length > 0 && (
         <>

@@ -3,6 +3,7 @@ import { maintenanceCautions } from '#shared/cautions.ts';
 import type { OpenWorkOrders } from '#shared/schemas/work-orders.ts';
 import { Badge, type BadgeTone } from '../../../components/ui/badge.tsx';
 import { Card } from '../../../components/ui/card.tsx';
+import { CardTable, type CardTableColumn } from '../../../components/ui/card-table.tsx';
 import { SafetyNote } from '../../../components/ui/safety-note.tsx';
 import { formatDate, formatDays, formatHours, formatNumber } from '../../../lib/format.ts';
 import { useOpenWorkOrders, type OpenWorkOrdersParams } from '../api/get-open-work-orders.ts';
@@ -31,6 +32,17 @@ function Figure({ label, value, detail, tone }: { label: string; value: string; 
     </div>
   );
 }
+
+/** In a narrow card the asset, type and hours columns give way (a container query on the card's width). */
+const wide = 'hidden @xl:table-cell';
+const openColumns: CardTableColumn[] = [
+  { header: 'Work order' },
+  { header: 'Asset', className: wide },
+  { header: 'Type', className: wide },
+  { header: 'Priority' },
+  { header: 'Open for', align: 'right' },
+  { header: 'Hours', align: 'right', className: wide },
+];
 
 /** How long an order has been open: hours under a day, then days. */
 const age = (days: number) => (days < 1 ? formatHours(days * 24, 0) : formatDays(days, days < 10 ? 1 : 0));
@@ -63,62 +75,37 @@ export function OpenWorkCard({ params, footer }: { params: OpenWorkOrdersParams;
             <p className="mt-4 text-sm text-basin-600">No work order is open.</p>
           ) : (
             <div className="mt-4 overflow-x-auto">
-              <table className="w-full text-sm">
-                <caption className="sr-only">Open work orders, overdue first</caption>
-                <thead>
-                  <tr className="text-left text-xs text-basin-600">
-                    <th scope="col" className="pb-1 font-normal">
-                      Work order
+              <CardTable caption="Open work orders, overdue first" columns={openColumns}>
+                {report.workOrders.map((o) => (
+                  <tr key={o.woNumber} className="border-t border-basin-100 align-top">
+                    <th scope="row" className="py-1.5 pr-2 text-left font-normal">
+                      <span className="font-mono text-xs font-bold whitespace-nowrap text-basin-900">{o.woNumber}</span>
+                      {/* In a narrow card the asset goes under the number, so the row fits without scrolling. */}
+                      <span className="block max-w-[11rem] truncate text-xs text-basin-600 @xl:max-w-[18rem]" title={o.description}>
+                        <span className="font-mono @xl:hidden">{o.asset}</span>
+                        {o.description && <span className="@xl:hidden"> · </span>}
+                        {o.description}
+                      </span>
                     </th>
-                    <th scope="col" className="hidden pb-1 font-normal @xl:table-cell">
-                      Asset
-                    </th>
-                    <th scope="col" className="hidden pb-1 font-normal @xl:table-cell">
-                      Type
-                    </th>
-                    <th scope="col" className="pb-1 font-normal">
-                      Priority
-                    </th>
-                    <th scope="col" className="pb-1 text-right font-normal">
-                      Open for
-                    </th>
-                    <th scope="col" className="hidden pb-1 text-right font-normal @xl:table-cell">
-                      Hours
-                    </th>
-                  </tr>
-                </thead>
-                <tbody className="tabular-nums">
-                  {report.workOrders.map((o) => (
-                    <tr key={o.woNumber} className="border-t border-basin-100 align-top">
-                      <th scope="row" className="py-1.5 pr-2 text-left font-normal">
-                        <span className="font-mono text-xs font-bold whitespace-nowrap text-basin-900">{o.woNumber}</span>
-                        {/* In a narrow card the asset goes under the number, so the row fits without scrolling. */}
-                        <span className="block max-w-[11rem] truncate text-xs text-basin-600 @xl:max-w-[18rem]" title={o.description}>
-                          <span className="font-mono @xl:hidden">{o.asset}</span>
-                          {o.description && <span className="@xl:hidden"> · </span>}
-                          {o.description}
+                    <td className="hidden py-1.5 pr-2 font-mono text-xs whitespace-nowrap @xl:table-cell">{o.asset}</td>
+                    <td className="hidden py-1.5 pr-2 text-basin-700 @xl:table-cell">{o.type}</td>
+                    <td className="py-1.5 pr-2">
+                      <Badge tone={priorityTone[o.priority]}>{o.priority}</Badge>
+                    </td>
+                    <td className="py-1.5 text-right whitespace-nowrap">
+                      {age(o.ageDays)}
+                      {o.overdue && (
+                        <span className="block">
+                          <Badge tone="fault">overdue</Badge>
                         </span>
-                      </th>
-                      <td className="hidden py-1.5 pr-2 font-mono text-xs whitespace-nowrap @xl:table-cell">{o.asset}</td>
-                      <td className="hidden py-1.5 pr-2 text-basin-700 @xl:table-cell">{o.type}</td>
-                      <td className="py-1.5 pr-2">
-                        <Badge tone={priorityTone[o.priority]}>{o.priority}</Badge>
-                      </td>
-                      <td className="py-1.5 text-right whitespace-nowrap">
-                        {age(o.ageDays)}
-                        {o.overdue && (
-                          <span className="block">
-                            <Badge tone="fault">overdue</Badge>
-                          </span>
-                        )}
-                      </td>
-                      <td className="hidden py-1.5 text-right whitespace-nowrap @xl:table-cell">
-                        {o.labourHours > 0 ? formatHours(o.labourHours, 1) : '—'}
-                      </td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
+                      )}
+                    </td>
+                    <td className="hidden py-1.5 text-right whitespace-nowrap @xl:table-cell">
+                      {o.labourHours > 0 ? formatHours(o.labourHours, 1) : '—'}
+                    </td>
+                  </tr>
+                ))}
+              </CardTable>
             </div>
           )}
           {shown < report.total && (
