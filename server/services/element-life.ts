@@ -1,6 +1,6 @@
 // Element life: which vessels of which site, their element installs and the window — then the pure
 // builder in shared/kpi/element-life-report.ts. The forecast (forecast.ts) reads the same input.
-import { buildElementLifeReport, type ElementLifeAnswer, type ElementLifeInput, type VesselPlace } from '#shared/kpi/element-life-report.ts';
+import { buildElementLifeReport, type ElementLifeAnswer, type ElementLifeReportInput, type VesselPlace } from '#shared/kpi/element-life-report.ts';
 import type { WindowQuery } from '#shared/schemas/common.ts';
 import type { ElementLifeQuery } from '#shared/schemas/element-life.ts';
 import type { Db } from '../db/client.ts';
@@ -13,7 +13,7 @@ import { ancestry, queryBounds, resolveSite, scopeOfSite, type KpiScope } from '
  * vessels in scope with their places, and the element installs in them made before the window's end.
  * Asked of a whole site, the installs need only the site, so they are read alongside the assets.
  */
-export async function loadElementInput(db: Db, query: WindowQuery): Promise<{ scope: KpiScope; input: ElementLifeInput }> {
+export async function loadElementInput(db: Db, query: WindowQuery): Promise<{ scope: KpiScope; input: ElementLifeReportInput }> {
   const site = await resolveSite(db, query.site);
   const bounds = queryBounds(query, site.timeZone);
   const [scope, siteInstalls] = await Promise.all([

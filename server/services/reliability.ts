@@ -4,7 +4,7 @@ import {
   buildReliabilityReport,
   operatingTimeTags,
   type ReliabilityAnswer,
-  type ReliabilityInput,
+  type ReliabilityReportInput,
   type ReliabilityWindow,
 } from '#shared/kpi/reliability-report.ts';
 import type { ReliabilityQuery } from '#shared/schemas/reliability.ts';
@@ -20,10 +20,10 @@ import { resolveScope } from './scope.ts';
  * of service during it, and the run-status history (derived tables only: run-status.ts) of each tag that
  * gives an asset in scope its operating time.
  */
-export async function loadReliabilityInput(db: Db, query: ReliabilityQuery): Promise<{ input: ReliabilityInput; window: ReliabilityWindow }> {
+export async function loadReliabilityInput(db: Db, query: ReliabilityQuery): Promise<{ input: ReliabilityReportInput; window: ReliabilityWindow }> {
   const { site, assets, asset, inScope, from, to } = await resolveScope(db, query);
   const window: ReliabilityWindow = { from, to, confidence: query.confidence, groupBy: query.groupBy };
-  const input: ReliabilityInput = { site: site.code, assets, asset, inScope, tags: [], workOrders: [], histories: new Map(), historyNotes: [] };
+  const input: ReliabilityReportInput = { site: site.code, assets, asset, inScope, tags: [], workOrders: [], histories: new Map(), historyNotes: [] };
   if (!from || !to) return { input, window };
   const tags = await listTags(db.$client, site.id);
   const workOrders = await listWorkOrdersReportedOrOutOfServiceIn(db.$client, site.id, inScope.map((a) => a.id), from, to);

@@ -33,7 +33,7 @@ export interface VesselPlace {
 }
 
 /** Everything an element life answer is computed from, as plain rows. */
-export interface ElementLifeInput {
+export interface ElementLifeReportInput {
   /** Site code. */
   site: string;
   /** The vessels in scope (the asset asked about and below it, or the site), by asset id. */
@@ -295,7 +295,7 @@ export function elementLifeGroup(key: string, lives: readonly ElementLifeObserva
  * Never NaN. Provenance: element serials (at most `PROVENANCE_CAP`, `elementCount` gives the full number)
  * and the window used.
  */
-export function buildElementLifeReport(input: ElementLifeInput, window: ElementLifeWindow): ElementLifeAnswer {
+export function buildElementLifeReport(input: ElementLifeReportInput, window: ElementLifeWindow): ElementLifeAnswer {
   const { from, to, groupBy, confidence } = window;
   const lives = to === null ? [] : observeLives(input.installs, input.places, groupBy, from, to);
   const groups = [...groupLives(lives, groupBy)].map(([key, list]) => elementLifeGroup(key, list, confidence));

@@ -17,7 +17,7 @@ import {
   weibullOut,
   windowTreatmentOf,
   type ElementInstall,
-  type ElementLifeInput,
+  type ElementLifeReportInput,
   type ElementLifeObservation,
 } from './element-life-report.ts';
 import { fitWeibull, weibullConfidenceRegion, type WeibullFitResult } from './element-life.ts';
@@ -29,7 +29,7 @@ const DAY_MS = 86_400_000;
 export const forecastElementListCap = 500;
 
 /** What the forecast is computed from: the element life input and the site's time zone (for the months). */
-export interface ForecastInput extends ElementLifeInput {
+export interface ForecastReportInput extends ElementLifeReportInput {
   /** IANA zone of the site. */
   timeZone: string;
 }
@@ -109,7 +109,7 @@ export function fitOf(lives: readonly ElementLifeObservation[], confidence: numb
  * Degenerate input: no element in service → no groups, totals 0 for every month (noted).
  */
 export function buildForecastReport(
-  input: ForecastInput,
+  input: ForecastReportInput,
   window: ForecastWindow,
   settings: Pick<Settings, 'elementUnitCost' | 'currency'>,
 ): ForecastAnswer {

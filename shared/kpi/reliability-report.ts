@@ -60,7 +60,7 @@ export interface ReliabilityWorkOrder {
 export type RunStatusHistoryInput = Pick<RunStatusHistory, 'samples' | 'priorSample' | 'dataFrom' | 'dataUntil'> & { tag: { id: number; name: string } };
 
 /** Everything a reliability answer is computed from, as plain rows. */
-export interface ReliabilityInput {
+export interface ReliabilityReportInput {
   /** Site code. */
   site: string;
   /** Every asset of the site. */
@@ -284,7 +284,7 @@ function figuresOf(
  * is the zero-failure bound (noted); T = 0 → every MTBF figure null ('no-operating-time'); no window (a site
  * without data) → from/to null and every figure null ('no-data').
  */
-export function buildReliabilityReport(input: ReliabilityInput, window: ReliabilityWindow): ReliabilityAnswer {
+export function buildReliabilityReport(input: ReliabilityReportInput, window: ReliabilityWindow): ReliabilityAnswer {
   const { site, assets, asset, inScope } = input;
   const { confidence } = window;
   const codes = inScope.map((a) => a.code);

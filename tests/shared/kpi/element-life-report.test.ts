@@ -14,7 +14,7 @@ import {
   windowTreatmentOf,
   type ElementInstall,
   type ElementLifeAnswer,
-  type ElementLifeInput,
+  type ElementLifeReportInput,
   type VesselPlace,
 } from '#shared/kpi/element-life-report.ts';
 import { fitWeibull, kaplanMeier } from '#shared/kpi/element-life.ts';
@@ -61,7 +61,7 @@ const installs = [
   // Installed at the window's start (not late), damaged after 100 d (31 + 29 + 31 + 9).
   install('E8', 1, 3, 'A', '2020-01-01', '2020-04-10', 'damaged'),
 ];
-const input: ElementLifeInput = { site: 'S', places, installs };
+const input: ElementLifeReportInput = { site: 'S', places, installs };
 const window = { from, to, confidence: 0.9, groupBy: 'all' as const };
 
 function checkedAgainstSchema(report: ElementLifeAnswer): ElementLifeAnswer {

@@ -16,7 +16,7 @@ import {
   forecastMonths,
   inServiceAt,
   type ForecastAnswer,
-  type ForecastInput,
+  type ForecastReportInput,
   type ForecastWindow,
 } from '#shared/kpi/forecast-report.ts';
 import { beforeFreshnessSchema } from '#shared/schemas/common.ts';
@@ -53,7 +53,7 @@ const install = (serial: string, vesselId: number, installedMs: number, removedM
 // The 23 bearing lives in T1, all failed before the start; N1 and N2 in T2, in service, aged 30 and 60 days at it.
 const bearings = liebleinZelen.map((days, i) => install(`LZ-${i + 1}`, 1, start, start + Math.round(days * DAY_MS), 'failed'));
 const inService = [install('N1', 2, asOf.getTime() - 30 * DAY_MS, null, null), install('N2', 2, asOf.getTime() - 60 * DAY_MS, null, null)];
-const input: ForecastInput = { site: 'FC', timeZone: 'Europe/Berlin', places, installs: [...bearings, ...inService] };
+const input: ForecastReportInput = { site: 'FC', timeZone: 'Europe/Berlin', places, installs: [...bearings, ...inService] };
 const window: ForecastWindow = { from: new Date(start), to: asOf, now: new Date('2030-01-01T00:00:00Z'), confidence: 0.9, groupBy: 'train', months: 12, renewal: false };
 const settings = { elementUnitCost: 620, currency: 'EUR' };
 
@@ -168,7 +168,7 @@ describe('buildForecastReport, grouped by train', () => {
 
 describe('edges', () => {
   it('no life-ending event anywhere: nothing is forecast, and the notes say which elements and why', () => {
-    const censored: ForecastInput = { ...input, installs: inService };
+    const censored: ForecastReportInput = { ...input, installs: inService };
     const all = checkedAgainstSchema(buildForecastReport(censored, { ...window, groupBy: 'all' }, settings));
     expect(all.groups).toEqual([]);
     expect(all.inService).toBe(2);

@@ -11,7 +11,7 @@ import {
   operatingTimeTags,
   type ReliabilityAnswer,
   type ReliabilityAsset,
-  type ReliabilityInput,
+  type ReliabilityReportInput,
   type ReliabilityTag,
   type ReliabilityWorkOrder,
   type RunStatusHistoryInput,
@@ -73,7 +73,7 @@ const WO8 = order({ woNumber: 'WO-8', assetId: 2, failureCode: 'SEAL', reportedA
 const orders = [WO1, WO2, WO3, WO4, WO5, WO6, WO7, WO8];
 
 /** The input the service would read for the asset (or the site): work orders on assets in scope. */
-function inputFor(asset: ReliabilityAsset | null, over: Partial<ReliabilityInput> = {}): ReliabilityInput {
+function inputFor(asset: ReliabilityAsset | null, over: Partial<ReliabilityReportInput> = {}): ReliabilityReportInput {
   const inScope = asset ? subtreeOf(asset) : assets;
   const ids = new Set(inScope.map((a) => a.id));
   return {
