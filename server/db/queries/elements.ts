@@ -1,15 +1,8 @@
 import type { ElementInstall } from '#shared/kpi/element-life-report.ts';
 import type { Queryable } from './queryable.ts';
 
-export interface ElementValues {
-  serial: string;
-  model: string;
-  vesselId: number;
-  position: number;
-  installedAt: Date;
-  removedAt: Date | null;
-  removalReason: string | null;
-}
+/** An element install as the importer writes it: the shared install without its row id. */
+export type ElementValues = Omit<ElementInstall, 'id'>;
 
 export async function listElementValues(q: Queryable, siteId: number): Promise<(ElementValues & { id: number })[]> {
   const { rows } = await q.query<ElementValues & { id: number }>(
