@@ -95,14 +95,22 @@ export function sumOf(column: number, first: number, last: number): string {
 }
 
 const DAY_MS = 86_400_000;
+/**
+ * Span over which the zone's offset is looked up once. Offsets change at most twice a year in practice,
+ * and no two changes of any zone in use lie within 16 days of each other, so a span whose two ends agree
+ * has no change inside it (common practice: the tz database's rules are months apart).
+ */
+const SPAN_MS = 16 * DAY_MS;
 
 /**
  * The site's wall clock for dates in cells: a spreadsheet date has no zone, so an instant is written as
- * the local date and time a person at the plant read then. The zone's offset is looked up once per UTC
- * day (Intl), and per instant only on the days it changes (daylight saving).
+ * the local date and time a person at the plant read then. The zone's offset is looked up (Intl) at the
+ * ends of 16-day spans; within a span whose ends differ, at the ends of each day; within such a day, per
+ * instant. A register of 200,000 dates over ten years costs a few hundred lookups.
  */
 export class SiteClock {
   private readonly parts: Intl.DateTimeFormat;
+  private readonly spanOffsets = new Map<number, number | null>();
   private readonly dayOffsets = new Map<number, number | null>();
 
   constructor(readonly timeZone: string) {
@@ -126,17 +134,27 @@ export class SiteClock {
     return Date.UTC(p.year!, p.month! - 1, p.day!, p.hour!, p.minute!, p.second!) - at;
   }
 
+  /** The offset over [start, start + length) when it is the same at both ends, else null. */
+  private steady(cache: Map<number, number | null>, key: number, start: number, length: number): number | null {
+    let offset = cache.get(key);
+    if (offset === undefined) {
+      const first = this.offsetAt(start);
+      offset = first === this.offsetAt(start + length - 1000) ? first : null;
+      cache.set(key, offset);
+    }
+    return offset;
+  }
+
   /** The local wall-clock time at `instant`, as a Date whose UTC fields read it (what exceljs writes). */
   wall(instant: Date): Date {
     const ms = instant.getTime();
-    const day = Math.floor(ms / DAY_MS);
-    let offset = this.dayOffsets.get(day);
-    if (offset === undefined) {
-      const start = this.offsetAt(day * DAY_MS);
-      offset = start === this.offsetAt((day + 1) * DAY_MS - 1000) ? start : null;
-      this.dayOffsets.set(day, offset);
+    const span = Math.floor(ms / SPAN_MS);
+    let offset = this.steady(this.spanOffsets, span, span * SPAN_MS, SPAN_MS);
+    if (offset === null) {
+      const day = Math.floor(ms / DAY_MS);
+      offset = this.steady(this.dayOffsets, day, day * DAY_MS, DAY_MS) ?? this.offsetAt(ms);
     }
-    return new Date(ms + (offset ?? this.offsetAt(ms)));
+    return new Date(ms + offset);
   }
 }
 
@@ -150,6 +168,7 @@ const headerStyle: Style = {
 const totalFont: Partial<ExcelJS.Font> = { bold: true };
 const noteFont: Partial<ExcelJS.Font> = { italic: true, color: { argb: 'FF4A5A62' } };
 const titleFont: Partial<ExcelJS.Font> = { bold: true, size: 13 };
+const headingFont: Partial<ExcelJS.Font> = { bold: true };
 
 /**
  * How a row of a table looks: data (inside the auto-filter), a total line, a heading above a block, a
@@ -166,6 +185,7 @@ export class Sheet {
   private rowCount = 0;
   private sinceSlice = 0;
   private filterTo = 0;
+  private readonly kinds: readonly CellKind[];
 
   constructor(
     private readonly ws: ExcelJS.Worksheet,
@@ -173,7 +193,9 @@ export class Sheet {
     readonly columns: readonly ColumnSpec[],
     private readonly clock: SiteClock,
     private readonly filtered: boolean,
-  ) {}
+  ) {
+    this.kinds = columns.map((c) => c.kind);
+  }
 
   /** Number of the last row written (0 before the header). */
   get lastRow(): number {
@@ -195,13 +217,20 @@ export class Sheet {
     return kind === 'date' || kind === 'datetime' ? this.clock.wall(value) : value.toISOString();
   }
 
+  // Per row: plain loops, no closures (a big sheet calls this 200,000 times).
   private write(values: readonly CellInput[], role: RowRole, kinds?: readonly (CellKind | undefined)[]): number {
-    const kindAt = (i: number) => kinds?.[i] ?? this.columns[i]?.kind ?? 'text';
-    const row = this.ws.addRow(values.map((v, i) => this.cell(v, kindAt(i))));
-    if (kinds) kinds.forEach((k, i) => k && (row.getCell(i + 1).numFmt = numberFormats[k]));
+    const cells: ExcelJS.CellValue[] = new Array(values.length);
+    for (let i = 0; i < values.length; i++) cells[i] = this.cell(values[i], kinds?.[i] ?? this.kinds[i] ?? 'text');
+    const row = this.ws.addRow(cells);
+    if (kinds) {
+      for (let i = 0; i < kinds.length; i++) {
+        const kind = kinds[i];
+        if (kind) row.getCell(i + 1).numFmt = numberFormats[kind];
+      }
+    }
     if (role === 'total') row.font = totalFont;
     else if (role === 'note') row.font = noteFont;
-    else if (role === 'heading') row.font = { bold: true };
+    else if (role === 'heading') row.font = headingFont;
     row.commit();
     this.rowCount += 1;
     if (role === 'data') this.filterTo = this.rowCount;
