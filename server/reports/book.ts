@@ -176,6 +176,9 @@ const headingFont: Partial<ExcelJS.Font> = { bold: true };
  */
 export type RowRole = 'data' | 'total' | 'heading' | 'note' | 'aside';
 
+/** Characters a cell can hold (Excel's specifications and limits: 32,767). */
+export const cellTextLimit = 32_767;
+
 /** Rows between two pauses that let the zip take what was written (keeps a big sheet out of memory). */
 const rowsPerPause = 1000;
 const pause = () => new Promise<void>((resolve) => setImmediate(resolve));
@@ -210,8 +213,9 @@ export class Sheet {
   private cell(value: CellInput, kind: CellKind): ExcelJS.CellValue {
     if (value === null || value === undefined) return null;
     if (value instanceof Formula) return value.result === null ? { formula: value.expression } : { formula: value.expression, result: value.result };
-    // Text stays text: exceljs writes a string as a string cell, whatever its first character.
-    if (typeof value === 'string') return value;
+    // Text stays text: exceljs writes a string as a string cell, whatever its first character. A cell holds
+    // at most 32,767 characters (Excel's specifications and limits); a longer imported line is cut there.
+    if (typeof value === 'string') return value.length > cellTextLimit ? `${value.slice(0, cellTextLimit - 1)}…` : value;
     if (typeof value === 'boolean') return value ? 'yes' : 'no';
     if (typeof value === 'number') return Number.isFinite(value) ? value : null;
     return kind === 'date' || kind === 'datetime' ? this.clock.wall(value) : value.toISOString();
