@@ -2,10 +2,11 @@
 // 200,000-row sheet never sits whole in memory), one table per sheet with its header frozen and
 // filtered, units in the headers, a number format per column, dates in the site's clock.
 //
-// Text is always written as text. A JavaScript string becomes a string cell (a shared string, t="s");
-// the only formulas in a workbook are `Formula` objects, which only the workbook modules make, from
-// cell references they compute — never from imported text. A work-order description "=HYPERLINK(…)"
+// Text is always written as text. A JavaScript string becomes a string cell (t="str", its value and no <f>
+// element); the only formulas in a workbook are `Formula` objects, which only the workbook modules make,
+// from cell references they compute — never from imported text. A work-order description "=HYPERLINK(…)"
 // therefore reaches the sheet as the characters it was imported as.
+import { EventEmitter, once } from 'node:events';
 import type { Writable } from 'node:stream';
 import type ExcelJS from 'exceljs';
 
@@ -179,9 +180,26 @@ export type RowRole = 'data' | 'total' | 'heading' | 'note' | 'aside';
 /** Characters a cell can hold (Excel's specifications and limits: 32,767). */
 export const cellTextLimit = 32_767;
 
-/** Rows between two pauses that let the zip take what was written (keeps a big sheet out of memory). */
-const rowsPerPause = 1000;
-const pause = () => new Promise<void>((resolve) => setImmediate(resolve));
+/** Rows between two looks at how much written XML still waits for the zip. */
+const rowsPerPause = 500;
+/** XML waiting for the zip beyond which writing waits for it to be taken (bytes). */
+const backlogLimit = 4 * 1024 * 1024;
+
+/**
+ * Lets the zip take what this sheet wrote. exceljs's sheet stream does not wait for its reader: archiver
+ * reads it through a PassThrough it pipes it into (archiver-utils normalizeInputSource), and rows written
+ * faster than deflate compresses them pile up there — a 200,000-row sheet whole in memory. That PassThrough
+ * (readable-stream 2.x: `_writableState.length` bytes waiting) is the sheet stream's one pipe: beyond
+ * `backlogLimit`, wait until it has drained; otherwise one turn of the event loop, so deflate is fed as
+ * rows are written. Should a later exceljs keep it elsewhere, only the turn remains.
+ */
+async function zipCaughtUp(ws: ExcelJS.Worksheet): Promise<void> {
+  type Pipe = EventEmitter & { writableLength?: number; _writableState?: { length?: number } };
+  const pipe = (ws as unknown as { stream?: { pipes?: unknown[] } }).stream?.pipes?.[0];
+  const waiting = pipe instanceof EventEmitter ? ((pipe as Pipe).writableLength ?? (pipe as Pipe)._writableState?.length ?? 0) : 0;
+  if (waiting > backlogLimit) await once(pipe as EventEmitter, 'drain');
+  else await new Promise<void>((resolve) => setImmediate(resolve));
+}
 
 /** One sheet being written: a header row (frozen, filtered), then rows in order. */
 export class Sheet {
@@ -268,7 +286,7 @@ export class Sheet {
     const n = this.write(values, role, kinds);
     if (++this.sinceSlice >= rowsPerPause) {
       this.sinceSlice = 0;
-      await pause();
+      await zipCaughtUp(this.ws);
     }
     return n;
   }
@@ -327,7 +345,9 @@ export class Book {
    */
   static async open(out: Writable, timeZone: string, created: Date): Promise<Book> {
     const { default: Excel } = await import('exceljs');
-    const wb = new Excel.stream.xlsx.WorkbookWriter({ stream: out, useStyles: true, useSharedStrings: true });
+    // Strings inline in their cells (t="str", no <f>), not in a shared-string table: the table is kept in
+    // memory until the end, and a register with a unique serial per row would hold 200,000 of them.
+    const wb = new Excel.stream.xlsx.WorkbookWriter({ stream: out, useStyles: true, useSharedStrings: false });
     wb.creator = 'Osmia';
     wb.created = created;
     wb.modified = created;

@@ -36,9 +36,22 @@ export async function sheetXml(data: Buffer, sheetName: string): Promise<{ xml: 
   if (!target) throw new Error(`no part for sheet ${sheetName}`);
   const xml = await zip.file(`xl/${target.replace(/^\/?xl\//, '')}`)!.async('string');
   const ss = (await zip.file('xl/sharedStrings.xml')?.async('string')) ?? '';
-  const unescape = (s: string) => s.replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&quot;/g, '"').replace(/&apos;/g, "'").replace(/&amp;/g, '&');
-  const sharedStrings = [...ss.matchAll(/<si>([\s\S]*?)<\/si>/g)].map((m) => unescape([...m[1]!.matchAll(/<t[^>]*>([\s\S]*?)<\/t>/g)].map((t) => t[1]).join('')));
+  const sharedStrings = [...ss.matchAll(/<si>([\s\S]*?)<\/si>/g)].map((m) => unescapeXml([...m[1]!.matchAll(/<t[^>]*>([\s\S]*?)<\/t>/g)].map((t) => t[1]).join('')));
   return { xml, sharedStrings };
+}
+
+const unescapeXml = (s: string) => s.replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&quot;/g, '"').replace(/&apos;/g, "'").replace(/&amp;/g, '&');
+
+/**
+ * The text a string cell element holds: a shared string (t="s"), a string value (t="str") or an inline
+ * string (t="inlineStr"); null for any other cell.
+ */
+export function cellText(cell: string, sharedStrings: readonly string[]): string | null {
+  const type = /^<c [^>]*\bt="([^"]+)"/.exec(cell)?.[1];
+  if (type === 's') return sharedStrings[Number(/<v>(\d+)<\/v>/.exec(cell)?.[1])] ?? null;
+  if (type === 'str') return unescapeXml(/<v>([\s\S]*?)<\/v>/.exec(cell)?.[1] ?? '');
+  if (type === 'inlineStr') return unescapeXml([...cell.matchAll(/<t[^>]*>([\s\S]*?)<\/t>/g)].map((m) => m[1]).join(''));
+  return null;
 }
 
 /** The `<c r="…">…</c>` element of one cell in a sheet's XML, or null. */

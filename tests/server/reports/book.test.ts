@@ -65,7 +65,7 @@ describe('Book', () => {
     expect(ws.getCell('B4').value).toEqual({ formula: 'SUM(B2:B3)', result: 5 });
     expect(ws.getCell('B2').numFmt).toBe('#,##0.00');
     const { xml } = await sheetXml(data, 'T');
-    expect(cellElement(xml, 'A2')).toMatch(/t="s"/);
+    expect(cellElement(xml, 'A2')).toMatch(/t="str"/);
     expect(cellElement(xml, 'A2')).not.toContain('<f>');
     expect(cellElement(xml, 'B4')).toContain('<f>SUM(B2:B3)</f>');
   });

@@ -1,5 +1,5 @@
 // Text from imported files that a spreadsheet would run as a formula ("=HYPERLINK(…)", "+1+1", "@SUM(1)")
-// stays text: in the workbooks (a string cell, t="s", with no <f> element; recalculated by LibreOffice it
+// stays text: in the workbooks (a string cell, t="str", with no <f> element; recalculated by LibreOffice it
 // still reads as typed) and in the CSV downloads, neutralised as the OWASP "CSV Injection" guidance says
 // (a leading single quote, the field quoted).
 import { mkdtempSync, rmSync } from 'node:fs';
@@ -11,7 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { importRecordSchema } from '#shared/schemas/imports.ts';
 import { writeReport } from '#server/reports/index.ts';
 import { createTestApp, type TestApp } from '../../setup/app.ts';
-import { cellElement, openWorkbook, recalculate, sheetXml, soffice } from '../../setup/spreadsheet.ts';
+import { cellElement, cellText, openWorkbook, recalculate, sheetXml, soffice } from '../../setup/spreadsheet.ts';
 import { importText } from '../importers/helpers.ts';
 import { SITE, seedOpsPlant } from '../../fixtures/ops-plant.ts';
 
@@ -58,10 +58,10 @@ describe('formula-like imported text in a workbook', () => {
         if (row.getCell(17).value !== text) return;
         found++;
         const cell = cellElement(xml, `Q${n}`)!;
-        // A shared string (t="s") and no <f>: nothing for a spreadsheet to run.
-        expect(cell, text).toMatch(/^<c r="Q\d+"[^>]* t="s"/);
+        // A string cell (t="str") with its value and no <f>: nothing for a spreadsheet to run.
+        expect(cell, text).toMatch(/^<c r="Q\d+"[^>]* t="str"/);
         expect(cell, text).not.toContain('<f');
-        expect(sharedStrings[Number(/<v>(\d+)<\/v>/.exec(cell)![1])]).toBe(text);
+        expect(cellText(cell, sharedStrings)).toBe(text);
         expect(row.getCell(17).type).toBe(3); // exceljs ValueType.String
       });
       expect(found, text).toBe(1);
