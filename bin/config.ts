@@ -60,6 +60,12 @@ export function serverEnv(databaseUrl: string, overrides: Partial<Record<string,
   });
 }
 
+/** Where `osmia report` writes without --out: REPORTS_DIR, else reports/ at the project root. */
+export function reportsDir(): string {
+  const fromEnv = process.env.REPORTS_DIR?.trim();
+  return fromEnv ? fromEnv : join(projectRoot, 'reports');
+}
+
 export function isTerminal(): boolean {
   return Boolean(process.stdout.isTTY) && !process.env.CI;
 }

@@ -62,6 +62,8 @@ export const envSchema = z.object({
   LOG_REQUESTS: flag,
   /** How often the server looks for new data to recompute the KPI answers people asked for; 0: never. */
   KPI_WARM_SECONDS: z.coerce.number().min(0).default(30),
+  /** Folder of stored workbooks (reports/<YYYY-MM-DD>/…); default reports/ at the project root. */
+  REPORTS_DIR: z.string().trim().min(1).optional(),
 });
 export type Env = z.infer<typeof envSchema>;
 

@@ -30,8 +30,26 @@ function ensureChromium(): void {
   spawnSync('apt-get', ['install', '-y', '--no-install-recommends', 'chromium'], { stdio: ['ignore', 'ignore', 'inherit'], env });
 }
 
+/**
+ * The workbook tests recalculate every formula with a real spreadsheet engine, LibreOffice headless from
+ * Debian's libreoffice-calc-nogui (about 200 MB): installed the same way when missing; without it those
+ * checks are skipped and say so.
+ */
+function ensureLibreOffice(): void {
+  if (existsSync('/usr/bin/soffice')) return;
+  if (process.getuid?.() !== 0) {
+    process.stderr.write('LibreOffice is missing: the workbook recalculation checks will be skipped (sudo apt-get install -y --no-install-recommends libreoffice-calc-nogui).\n');
+    return;
+  }
+  process.stderr.write('Installing Debian package "libreoffice-calc-nogui" for the workbook tests (apt-get)…\n');
+  const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
+  spawnSync('apt-get', ['update'], { stdio: 'ignore', env });
+  spawnSync('apt-get', ['install', '-y', '--no-install-recommends', 'libreoffice-calc-nogui'], { stdio: ['ignore', 'ignore', 'inherit'], env });
+}
+
 const failures: string[] = [];
 ensureChromium();
+ensureLibreOffice();
 if (vitestArgs.length === 0) {
   if (!step('type check (app)', bin('tsc'), ['--noEmit', '-p', 'tsconfig.json'])) failures.push('typecheck');
   if (!step('type check (shared: no DOM, no Node)', bin('tsc'), ['--noEmit', '-p', 'shared/tsconfig.json'])) failures.push('typecheck shared');

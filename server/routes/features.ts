@@ -1,6 +1,7 @@
 import type { AppDeps } from '../deps.ts';
 import { importRoutes } from './imports.ts';
 import { kpiRoutes } from './kpi.ts';
+import { reportRoutes } from './reports.ts';
 import { siteRoutes } from './sites.ts';
 import type { RouteRegistry } from './registry.ts';
 import { workOrderRoutes } from './work-orders.ts';
@@ -11,4 +12,5 @@ export function registerFeatureRoutes(r: RouteRegistry, deps: AppDeps): void {
   importRoutes(r, deps);
   kpiRoutes(r, deps);
   workOrderRoutes(r, deps);
+  reportRoutes(r, deps);
 }

@@ -1,4 +1,5 @@
 import type { ImportRecord } from '#shared/schemas/imports.ts';
+import { csvRecord } from '../csv.ts';
 import type { Db } from '../db/client.ts';
 import { addImportDuration, getImport, listImports, noteRefreshFailure, streamRejects, sweepInterruptedImports } from '../db/queries/imports.ts';
 import { notFound } from '../errors.ts';
@@ -64,16 +65,11 @@ export async function importDetail(db: Db, id: number) {
   return { ...record, progress: running.get(id) ?? null };
 }
 
-/** The rejects of an import as CSV lines (header first), streamed in pages. */
+/** The rejects of an import as CSV lines (header first), streamed in pages; text neutralised against formulas (server/csv.ts). */
 export async function* rejectsCsv(db: Db, id: number): AsyncGenerator<string> {
   if (!(await getImport(db.$client, id, 0))) throw notFound('import-not-found');
-  const cell = (v: string | number | null) => {
-    const s = v === null ? '' : String(v);
-    // Quote every text cell; a leading = + - @ is prefixed so a spreadsheet shows it as text.
-    return `"${(/^[=+\-@]/.test(s) ? `'${s}` : s).replace(/"/g, '""')}"`;
-  };
   yield 'line,reason,row\r\n';
   for await (const page of streamRejects(db.$client, id)) {
-    yield page.map((r) => `${r.line},${cell(r.reason)},${cell(r.raw)}\r\n`).join('');
+    yield page.map((r) => csvRecord([r.line, r.reason, r.raw])).join('');
   }
 }

@@ -70,6 +70,10 @@ export function createAppRouter(queryClient: QueryClient) {
           lazy: () => import('./routes/imports.tsx').then((m) => ({ loader: m.createImportsLoader(queryClient), Component: m.ImportsRoute })),
         },
         {
+          path: relative(pageById('reports').path),
+          lazy: () => import('./routes/reports.tsx').then((m) => ({ loader: m.createReportsLoader(queryClient), Component: m.ReportsRoute })),
+        },
+        {
           path: relative(pageById('users').path),
           lazy: () => import('./routes/users.tsx').then((m) => ({ loader: m.createUsersLoader(queryClient), Component: m.UsersRoute })),
         },

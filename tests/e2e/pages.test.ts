@@ -27,7 +27,7 @@ const briefTable: Record<string, Role[]> = {
   Downtime: all,
   'Membrane performance': ['admin', 'engineer', 'manager'],
   Imports: ['admin', 'engineer'],
-  // The brief's Reports page (every role) waits for GET /api/reports: it is not in the table until then.
+  Reports: all,
   Users: ['admin'],
   Settings: all,
 };

@@ -1,3 +1,6 @@
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import request from 'supertest';
 import type { Role } from '#shared/schemas/enums.ts';
 import { createApp } from '#server/app.ts';
@@ -24,6 +27,8 @@ export interface TestApp extends TestDatabase {
 /** `clientDist`: a built client (vite build) for the app to serve beside the API, as in production. */
 export async function createTestApp(envOverrides: Record<string, string> = {}, options: { clientDist?: string } = {}): Promise<TestApp> {
   const database = await createTestDatabase();
+  // Stored workbooks of this app only (GET /api/reports lists them), never the checkout's reports/.
+  const reportsDir = mkdtempSync(join(tmpdir(), 'osmia-reports-'));
   const env = loadEnv({
     NODE_ENV: 'test',
     DATABASE_URL: database.url,
@@ -32,6 +37,7 @@ export async function createTestApp(envOverrides: Record<string, string> = {}, o
     LOGIN_RATE_LIMIT: '1000',
     // No background recomputation unless a test asks for it (tests/server/services/kpi-cache.test.ts).
     KPI_WARM_SECONDS: '0',
+    REPORTS_DIR: reportsDir,
     ...envOverrides,
   });
   const app = createApp({ db: database.db, env, sessionKey: secretKey(env.JWT_SECRET) }, { log: () => {}, clientDist: options.clientDist });
@@ -42,5 +48,9 @@ export async function createTestApp(envOverrides: Record<string, string> = {}, o
     if (res.status !== 200) throw new Error(`login of ${role} failed: ${res.status} ${JSON.stringify(res.body)}`);
     cookies[role] = String(res.headers['set-cookie']?.[0] ?? '').split(';')[0];
   }
-  return { ...database, app, env, cookies };
+  const close = async () => {
+    await database.close();
+    rmSync(reportsDir, { recursive: true, force: true });
+  };
+  return { ...database, close, app, env, cookies };
 }

@@ -1,3 +1,5 @@
+import { mkdirSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
 import type { TestApp } from '../../setup/app.ts';
 import { importText } from '../importers/helpers.ts';
 
@@ -20,6 +22,10 @@ export async function accessFixtures(t: TestApp): Promise<Record<string, Fixture
   const users = await t.db.query.users.findMany();
   const manager = users.find((u) => u.role === 'manager')!;
   const record = await importText(t.db, 'assets', 'code,name,kind,parent,rated_permeate_m3h,element_capacity,rack_row,rack_col\nT1,Train,train,,10,,,\nbad,,,,,,,\n', { site: 'ACC' });
+  // A stored workbook every role may download (the manager's), where the nightly run would have put it.
+  mkdirSync(join(t.env.REPORTS_DIR!, '2025-02-01'), { recursive: true });
+  writeFileSync(join(t.env.REPORTS_DIR!, '2025-02-01', 'manager-ACC-2025-01-01-2025-02-01.xlsx'), 'a stored workbook');
+  const reportWindow = 'site=ACC&from=2025-01-01&to=2025-02-01';
   return {
     'GET /api/health': { method: 'get', url: '/api/health' },
     'GET /api/openapi.json': { method: 'get', url: '/api/openapi.json' },
@@ -61,5 +67,10 @@ export async function accessFixtures(t: TestApp): Promise<Record<string, Fixture
     'GET /api/kpi/downtime': { method: 'get', url: '/api/kpi/downtime?site=ACC' },
     'GET /api/kpi/performance': { method: 'get', url: '/api/kpi/performance?site=ACC' },
     'GET /api/work-orders/open': { method: 'get', url: '/api/work-orders/open?site=ACC' },
+    'GET /api/reports': { method: 'get', url: '/api/reports' },
+    'GET /api/reports/finance.xlsx': { method: 'get', url: `/api/reports/finance.xlsx?${reportWindow}` },
+    'GET /api/reports/manager.xlsx': { method: 'get', url: `/api/reports/manager.xlsx?${reportWindow}` },
+    'GET /api/reports/engineer.xlsx': { method: 'get', url: `/api/reports/engineer.xlsx?${reportWindow}` },
+    'GET /api/reports/stored/:date/:file': { method: 'get', url: '/api/reports/stored/2025-02-01/manager-ACC-2025-01-01-2025-02-01.xlsx' },
   };
 }
