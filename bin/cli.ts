@@ -6,6 +6,7 @@ import { registerSeed } from './commands/seed.ts';
 import { registerImport } from './commands/import.ts';
 import { registerKpi } from './commands/kpi.ts';
 import { registerRefresh } from './commands/refresh.ts';
+import { registerNightly } from './commands/nightly.ts';
 import { CliError, exitState } from './run.ts';
 
 /** Exit codes: 0 ok, 1 error, 2 usage, 3 some rows rejected. */
@@ -22,6 +23,7 @@ export function buildProgram(): Command {
   registerImport(program);
   registerRefresh(program);
   registerKpi(program);
+  registerNightly(program);
   for (const command of program.commands) command.exitOverride();
   const recurse = (c: Command) => c.commands.forEach((s) => (s.exitOverride(), recurse(s)));
   recurse(program);

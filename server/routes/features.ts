@@ -1,6 +1,8 @@
 import type { AppDeps } from '../deps.ts';
 import { importRoutes } from './imports.ts';
 import { kpiRoutes } from './kpi.ts';
+import { mailRoutes } from './mail.ts';
+import { nightlyRoutes } from './nightly.ts';
 import { siteRoutes } from './sites.ts';
 import type { RouteRegistry } from './registry.ts';
 import { workOrderRoutes } from './work-orders.ts';
@@ -11,4 +13,6 @@ export function registerFeatureRoutes(r: RouteRegistry, deps: AppDeps): void {
   importRoutes(r, deps);
   kpiRoutes(r, deps);
   workOrderRoutes(r, deps);
+  nightlyRoutes(r, deps);
+  mailRoutes(r, deps);
 }

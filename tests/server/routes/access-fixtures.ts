@@ -1,3 +1,4 @@
+import { insertMailMessage } from '#server/db/queries/mail-messages.ts';
 import type { TestApp } from '../../setup/app.ts';
 import { importText } from '../importers/helpers.ts';
 
@@ -20,12 +21,25 @@ export async function accessFixtures(t: TestApp): Promise<Record<string, Fixture
   const users = await t.db.query.users.findMany();
   const manager = users.find((u) => u.role === 'manager')!;
   const record = await importText(t.db, 'assets', 'code,name,kind,parent,rated_permeate_m3h,element_capacity,rack_row,rack_col\nT1,Train,train,,10,,,\nbad,,,,,,,\n', { site: 'ACC' });
+  const messageId = await insertMailMessage(t.db.$client, {
+    envelopeFrom: 'osmia@osmia.test',
+    envelopeTo: ['manager@osmia.test'],
+    from: 'Osmia <osmia@osmia.test>',
+    to: 'manager@osmia.test',
+    subject: 'A received message',
+    messageId: null,
+    text: 'Text part',
+    html: '<p>HTML part</p>',
+    attachments: [],
+    size: 100,
+  });
   return {
     'GET /api/health': { method: 'get', url: '/api/health' },
     'GET /api/openapi.json': { method: 'get', url: '/api/openapi.json' },
     'POST /api/auth/login': { method: 'post', url: '/api/auth/login', body: { email: 'admin@test.example', password: 'admin-password-1' } },
     'POST /api/auth/logout': { method: 'post', url: '/api/auth/logout', endsSession: true },
     'GET /api/auth/me': { method: 'get', url: '/api/auth/me' },
+    'PATCH /api/auth/me': { method: 'patch', url: '/api/auth/me', body: { digest: true } },
     'GET /api/users': { method: 'get', url: '/api/users' },
     'POST /api/users': {
       method: 'post',
@@ -61,5 +75,8 @@ export async function accessFixtures(t: TestApp): Promise<Record<string, Fixture
     'GET /api/kpi/downtime': { method: 'get', url: '/api/kpi/downtime?site=ACC' },
     'GET /api/kpi/performance': { method: 'get', url: '/api/kpi/performance?site=ACC' },
     'GET /api/work-orders/open': { method: 'get', url: '/api/work-orders/open?site=ACC' },
+    'GET /api/nightly-runs': { method: 'get', url: '/api/nightly-runs?limit=5' },
+    'GET /api/mail': { method: 'get', url: '/api/mail?limit=5&offset=0' },
+    'GET /api/mail/:id': { method: 'get', url: `/api/mail/${messageId}` },
   };
 }
