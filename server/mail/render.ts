@@ -111,7 +111,8 @@ const style = {
 };
 
 export function renderHtml(doc: MailDocument): string {
-  const e = escapeHtml;
+  // Escaped, and a number kept on one line with its unit.
+  const e = (text: string) => escapeHtml(text).replace(/(\d) (%|h\b|m³)/g, '$1&nbsp;$2');
   const parts: string[] = [];
   for (const b of doc.blocks) {
     switch (b.type) {
@@ -133,7 +134,7 @@ export function renderHtml(doc: MailDocument): string {
         break;
       case 'link': {
         const href = safeHref(b.href);
-        parts.push(href ? `<p><a style="${style.link}" href="${e(href)}">${e(b.text)}</a></p>` : `<p>${e(b.text)}: ${e(b.href)}</p>`);
+        parts.push(href ? `<p><a style="${style.link}" href="${escapeHtml(href)}">${e(b.text)}</a></p>` : `<p>${e(b.text)}: ${e(b.href)}</p>`);
         break;
       }
       case 'cautions':

@@ -70,6 +70,14 @@ export function createAppRouter(queryClient: QueryClient) {
           lazy: () => import('./routes/imports.tsx').then((m) => ({ loader: m.createImportsLoader(queryClient), Component: m.ImportsRoute })),
         },
         {
+          path: relative(pageById('nightly').path),
+          lazy: () => import('./routes/nightly.tsx').then((m) => ({ loader: m.createNightlyLoader(queryClient), Component: m.NightlyRoute })),
+        },
+        {
+          path: relative(pageById('mail').path),
+          lazy: () => import('./routes/mail.tsx').then((m) => ({ loader: m.createMailLoader(queryClient), Component: m.MailRoute })),
+        },
+        {
           path: relative(pageById('users').path),
           lazy: () => import('./routes/users.tsx').then((m) => ({ loader: m.createUsersLoader(queryClient), Component: m.UsersRoute })),
         },
