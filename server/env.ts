@@ -69,21 +69,24 @@ export const cronSchema = z
     }
   }, 'must be a cron expression such as "15 2 * * *" (minute hour day-of-month month day-of-week)');
 
+/** An optional setting left empty (`SMTP_URL=` in a unit file or .env) is unset, not a bad value. */
+const optionalSetting = <T extends z.ZodType>(schema: T) => z.preprocess((v) => (typeof v === 'string' && v.trim() === '' ? undefined : v), schema.optional());
+
 /** What the nightly run, the schedule and the mail read (the CLI reads these without the server's secrets). */
 const nightlyShape = {
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
   /** The relay for outgoing mail. Unset outside production: a development mail server on loopback takes it (server/mail/fake-smtp.ts). */
-  SMTP_URL: smtpUrlSchema.optional(),
+  SMTP_URL: optionalSetting(smtpUrlSchema),
   /** Port of that development mail server; 0 picks a free one. */
   SMTP_FAKE_PORT: z.coerce.number().int().min(0).max(65535).default(0),
   MAIL_FROM: z.string().trim().min(3).default('Osmia <osmia@localhost>'),
   /** Where the digest's links point: the address people open the app at. */
   PUBLIC_URL: z.url({ protocol: /^https?$/, error: 'must be an http:// or https:// URL' }).default('http://127.0.0.1:3000'),
   /** The folder the nightly run imports from; relative to the project root; default .osmia/inbox. */
-  INBOX_DIR: z.string().trim().min(1).optional(),
+  INBOX_DIR: optionalSetting(z.string().trim().min(1)),
   /** When `osmia schedule` runs the nightly job, in NIGHTLY_TZ or the first site's zone. */
   NIGHTLY_CRON: cronSchema.default('15 2 * * *'),
-  NIGHTLY_TZ: timeZoneSchema.optional(),
+  NIGHTLY_TZ: optionalSetting(timeZoneSchema),
 };
 
 /** Everything the server reads from its environment, validated once at start. */
