@@ -49,5 +49,6 @@ export function createMailer(smtpUrl: string, from: string): Mailer {
  */
 export function failedForThisMessageOnly(err: unknown): boolean {
   const code = (err as { code?: string } | null)?.code;
-  return code === 'EENVELOPE' || code === 'EMESSAGE' || code === 'ENOENT' || code === 'EISDIR' || code === 'EACCES';
+  // ESTREAM: an attachment could not be read (nodemailer keeps the file error, ENOENT…, in the message).
+  return code === 'EENVELOPE' || code === 'EMESSAGE' || code === 'ESTREAM' || code === 'ENOENT' || code === 'EISDIR' || code === 'EACCES';
 }
