@@ -7,6 +7,7 @@ import { registerImport } from './commands/import.ts';
 import { registerKpi } from './commands/kpi.ts';
 import { registerRefresh } from './commands/refresh.ts';
 import { registerReport } from './commands/report.ts';
+import { registerNightly } from './commands/nightly.ts';
 import { CliError, exitState } from './run.ts';
 
 /** Exit codes: 0 ok, 1 error, 2 usage, 3 some rows rejected. */
@@ -24,6 +25,7 @@ export function buildProgram(): Command {
   registerRefresh(program);
   registerKpi(program);
   registerReport(program);
+  registerNightly(program);
   for (const command of program.commands) command.exitOverride();
   const recurse = (c: Command) => c.commands.forEach((s) => (s.exitOverride(), recurse(s)));
   recurse(program);

@@ -2,10 +2,10 @@
 // server/env.ts, the only code that reads process.env.
 import { randomBytes } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
-import { dirname, join } from 'node:path';
+import { dirname, join, resolve } from 'node:path';
 import { projectClusterDir, startCluster } from '#server/db/cluster.ts';
 import { projectRoot } from '#server/paths.ts';
-import { loadEnv, type Env } from '#server/env.ts';
+import { loadEnv, loadNightlyEnv, type Env, type NightlyEnv } from '#server/env.ts';
 
 export { projectRoot };
 /** Git-ignored: the private cluster (or a pointer to it), the generated secret, demo files. */
@@ -68,4 +68,18 @@ export function reportsDir(): string {
 
 export function isTerminal(): boolean {
   return Boolean(process.stdout.isTTY) && !process.env.CI;
+}
+
+/** The nightly run's settings (INBOX_DIR, SMTP_URL, MAIL_FROM, PUBLIC_URL, NIGHTLY_CRON, NIGHTLY_TZ), checked once. */
+export function nightlyEnv(): NightlyEnv {
+  return loadNightlyEnv(process.env);
+}
+
+/**
+ * The inbox folder: --inbox (relative to the working folder, as any path on a command line), else
+ * INBOX_DIR (relative to the project root, so a crontab line reads the same folder from anywhere), else
+ * .osmia/inbox.
+ */
+export function inboxDir(flag: string | undefined, env: Pick<NightlyEnv, 'INBOX_DIR'>): string {
+  return flag ? resolve(flag) : resolve(projectRoot, env.INBOX_DIR ?? join(dataDir, 'inbox'));
 }

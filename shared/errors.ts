@@ -23,6 +23,7 @@ export const errorMessages = {
   'file-missing': 'Attach a file to import.',
   'unknown-setting': 'No such setting.',
   'report-not-found': 'No such report.',
+  'mail-not-found': 'No such message.',
   'database-unavailable': 'The database cannot be reached right now: try again in a minute. If it lasts, ask an administrator to check the database server.',
   'internal-error': 'Something went wrong on the server; the error was logged.',
 } as const;

@@ -25,6 +25,10 @@ import {
   workOrderTypes,
   importKinds,
   importStatuses,
+  mailKinds,
+  membraneAlertKinds,
+  nightlyRunOutcomes,
+  nightlyTriggers,
 } from '#shared/schemas/enums.ts';
 
 // Every instant is a timestamptz: durations are real elapsed time whatever the site's time zone.
@@ -48,6 +52,8 @@ export const users = pgTable(
     lastLoginAt: instant('last_login_at'),
     /** Raised by sign-out, a password or role change and disabling: sessions signed before end (auth/session.ts). */
     sessionGeneration: integer('session_generation').notNull().default(0),
+    /** Receives the nightly digest and the alert mails its role may read (server/mail/, docs/design.md §2). */
+    digest: boolean('digest').notNull().default(false),
   },
   (t) => [
     uniqueIndex('users_email_key').on(sql`lower(${t.email})`),
@@ -356,16 +362,119 @@ export const settings = pgTable('settings', {
   updatedBy: text('updated_by'),
 });
 
-export const mailLog = pgTable(
-  'mail_log',
+/**
+ * One row per nightly run (server/jobs/nightly.ts): what it found in the inbox and did with each file,
+ * each step's result, and the figures its digest reported. A run killed before it finished keeps
+ * `finished_at` null until the next run marks it interrupted.
+ */
+export const nightlyRuns = pgTable(
+  'nightly_runs',
   {
     id: serial('id').primaryKey(),
-    recipients: text('recipients').notNull(),
-    subject: text('subject').notNull(),
-    body: text('body').notNull(),
-    status: text('status').notNull(),
+    startedAt: instant('started_at').notNull().defaultNow(),
+    finishedAt: instant('finished_at'),
+    /** Null while the run is under way. */
+    outcome: text('outcome'),
+    trigger: text('trigger').notNull(),
+    host: text('host').notNull(),
+    pid: integer('pid').notNull(),
+    inbox: text('inbox').notNull(),
+    /** The day the digest reports up to (its windows end at that day's midnight in the site's zone). */
+    reportDate: text('report_date').notNull(),
+    files: jsonb('files').notNull().default([]),
+    steps: jsonb('steps').notNull().default([]),
+    figures: jsonb('figures').notNull().default([]),
+    mail: jsonb('mail').notNull().default({}),
     error: text('error'),
-    sentAt: instant('sent_at').notNull().defaultNow(),
   },
-  () => [check('mail_log_status_check', sql`status in ('sent', 'failed')`)],
+  (t) => [
+    index('nightly_runs_started_idx').on(t.startedAt),
+    check('nightly_runs_outcome_check', sql`outcome is null or ${oneOf('outcome', nightlyRunOutcomes)}`),
+    check('nightly_runs_trigger_check', oneOf('trigger', nightlyTriggers)),
+  ],
+);
+
+/**
+ * Mail waiting to be sent, and mail sent (`sent_at`): the nightly run writes every message here first and
+ * then sends what is unsent, so a message the SMTP server did not take is retried on the next run.
+ * `dedupe_key` keeps one digest per recipient and day and one alert per crossing, also across a run
+ * killed and run again.
+ */
+export const outbox = pgTable(
+  'outbox',
+  {
+    id: serial('id').primaryKey(),
+    createdAt: created(),
+    kind: text('kind').notNull(),
+    dedupeKey: text('dedupe_key').notNull(),
+    toAddress: text('to_address').notNull(),
+    subject: text('subject').notNull(),
+    text: text('text').notNull(),
+    html: text('html').notNull(),
+    /** [{filename, path}]: files attached when the message is sent. */
+    attachments: jsonb('attachments').notNull().default([]),
+    attempts: integer('attempts').notNull().default(0),
+    lastError: text('last_error'),
+    lastAttemptAt: instant('last_attempt_at'),
+    sentAt: instant('sent_at'),
+    messageId: text('message_id'),
+    nightlyRunId: integer('nightly_run_id').references(() => nightlyRuns.id, { onDelete: 'set null' }),
+  },
+  (t) => [
+    uniqueIndex('outbox_dedupe_key').on(t.dedupeKey),
+    index('outbox_unsent_idx').on(t.id).where(sql`sent_at is null`),
+    index('outbox_recipient_idx').on(t.toAddress, t.kind, t.createdAt),
+    check('outbox_kind_check', oneOf('kind', mailKinds)),
+  ],
+);
+
+/** What the development mail server (server/mail/fake-smtp.ts) received, for the Mail page. */
+export const mailMessages = pgTable(
+  'mail_messages',
+  {
+    id: serial('id').primaryKey(),
+    receivedAt: instant('received_at').notNull().defaultNow(),
+    envelopeFrom: text('envelope_from').notNull(),
+    envelopeTo: jsonb('envelope_to').notNull().default([]),
+    fromHeader: text('from_header').notNull(),
+    toHeader: text('to_header').notNull(),
+    subject: text('subject').notNull(),
+    messageId: text('message_id'),
+    text: text('text'),
+    html: text('html'),
+    /** [{filename, contentType, size}] */
+    attachments: jsonb('attachments').notNull().default([]),
+    size: integer('size').notNull(),
+  },
+  (t) => [index('mail_messages_received_idx').on(t.receivedAt)],
+);
+
+/**
+ * Membrane alerts as the nightly run last saw them, per site, stage and kind: a row is open (cleared_at
+ * null) from the run that first saw the threshold crossed until a run sees the stage's latest point
+ * without it. The alert mail goes out when the row is opened, not every night after.
+ */
+export const membraneAlerts = pgTable(
+  'membrane_alerts',
+  {
+    id: serial('id').primaryKey(),
+    siteId: integer('site_id')
+      .notNull()
+      .references(() => sites.id, { onDelete: 'cascade' }),
+    stage: text('stage').notNull(),
+    kind: text('kind').notNull(),
+    /** When the crossing began, as the performance answer dates it (`since`). */
+    crossedAt: instant('crossed_at').notNull(),
+    detectedAt: instant('detected_at').notNull().defaultNow(),
+    lastSeenAt: instant('last_seen_at').notNull().defaultNow(),
+    clearedAt: instant('cleared_at'),
+    changePct: doublePrecision('change_pct').notNull(),
+    thresholdPct: doublePrecision('threshold_pct').notNull(),
+    nightlyRunId: integer('nightly_run_id').references(() => nightlyRuns.id, { onDelete: 'set null' }),
+  },
+  (t) => [
+    uniqueIndex('membrane_alerts_open_key').on(t.siteId, t.stage, t.kind).where(sql`cleared_at is null`),
+    index('membrane_alerts_detected_idx').on(t.siteId, t.detectedAt),
+    check('membrane_alerts_kind_check', oneOf('kind', membraneAlertKinds)),
+  ],
 );

@@ -55,7 +55,7 @@ const importers: Record<ImportKind, (ctx: KindContext) => Promise<KindResult>> =
 };
 
 /** sha256 of the size and the first and last megabyte: cheap, and equal for equal files. */
-async function fileFingerprint(path: string, size: number): Promise<string> {
+export async function fileFingerprint(path: string, size: number): Promise<string> {
   const fh = await open(path, 'r');
   try {
     const mb = 1 << 20;

@@ -1,13 +1,13 @@
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
 import type { Request } from 'express';
-import { emailSchema, loginBodySchema, meSchema } from '#shared/schemas/users.ts';
+import { emailSchema, loginBodySchema, meSchema, meUpdateBodySchema } from '#shared/schemas/users.ts';
 import { roles } from '#shared/schemas/enums.ts';
 import { clearSession, issueSession } from '../auth/cookie.ts';
 import { currentUser } from '../auth/middleware.ts';
 import { endUserSessions } from '../db/queries/users.ts';
 import type { AppDeps } from '../deps.ts';
 import { HttpError } from '../errors.ts';
-import { signIn } from '../services/users.ts';
+import { changeOwnAccount, signIn } from '../services/users.ts';
 import type { RouteRegistry } from './registry.ts';
 
 /**
@@ -63,4 +63,13 @@ export function authRoutes(r: RouteRegistry, { db, env, sessionKey }: AppDeps) {
   r.get('/api/auth/me', { access: roles, summary: 'The signed-in user', response: meSchema }, (_req, res) => {
     res.json({ user: currentUser(res) });
   });
+
+  r.patch(
+    '/api/auth/me',
+    { access: roles, summary: 'Change one’s own account: subscribe to the nightly digest or leave it', body: meUpdateBodySchema, response: meSchema },
+    async (req, res) => {
+      const body = meUpdateBodySchema.parse(req.body);
+      res.json({ user: await changeOwnAccount(db, currentUser(res).id, body) });
+    },
+  );
 }

@@ -1,5 +1,5 @@
 import type { Role } from '#shared/schemas/enums.ts';
-import type { User, UserCreateBody, UserUpdateBody } from '#shared/schemas/users.ts';
+import type { MeUpdateBody, User, UserCreateBody, UserUpdateBody } from '#shared/schemas/users.ts';
 import { decoyHash, hashPassword, verifyPassword } from '../auth/passwords.ts';
 import type { Db } from '../db/client.ts';
 import {
@@ -12,9 +12,10 @@ import {
 } from '../db/queries/users.ts';
 import { HttpError, conflict, notFound } from '../errors.ts';
 
-export async function createUser(db: Db, body: UserCreateBody, cost: number): Promise<User> {
+/** `digest` may be left out (not subscribed), as the request body's schema fills it in. */
+export async function createUser(db: Db, body: Omit<UserCreateBody, 'digest'> & { digest?: boolean }, cost: number): Promise<User> {
   const passwordHash = await hashPassword(body.password, cost);
-  const user = await insertUser(db, { email: body.email, name: body.name, role: body.role, passwordHash });
+  const user = await insertUser(db, { email: body.email, name: body.name, role: body.role, passwordHash, digest: body.digest ?? false });
   if (!user) throw conflict('email-taken');
   return user;
 }
@@ -38,7 +39,7 @@ export async function changeUser(
   }
   if (id === actorId && body.disabled === true) throw new HttpError(409, 'bad-request', 'You cannot disable your own account.');
   const { password, ...rest } = body;
-  const values: Partial<{ name: string; role: Role; disabled: boolean; passwordHash: string }> = { ...rest };
+  const values: Partial<{ name: string; role: Role; disabled: boolean; passwordHash: string; digest: boolean }> = { ...rest };
   if (password) values.passwordHash = await hashPassword(password, cost);
   const sessionsEnded = Boolean(password) || (body.role !== undefined && body.role !== existing.role) || (body.disabled === true && !existing.disabled);
   const updated = await updateUser(db, id, values, { endSessions: sessionsEnded });
@@ -58,4 +59,11 @@ export async function signIn(db: Db, email: string, password: string): Promise<{
   await touchLastLogin(db, found.id);
   const { passwordHash: _omit, sessionGeneration, ...user } = found;
   return { user, sessionGeneration };
+}
+
+/** A user's own changes (PATCH /api/auth/me): the digest subscription; sessions are left alone. */
+export async function changeOwnAccount(db: Db, id: number, body: MeUpdateBody): Promise<User> {
+  const updated = await updateUser(db, id, { digest: body.digest });
+  if (!updated) throw notFound('user-not-found');
+  return updated.user;
 }

@@ -137,3 +137,13 @@ export function beforeFreshnessSchema<Shape extends z.ZodRawShape>(schema: z.Zod
   const mask = { dataAsOf: true, derivedUpToDate: true, warnings: true } as const;
   return schema.omit(mask as never) as unknown as z.ZodObject<{ [K in Exclude<keyof Shape, keyof Freshness>]: Shape[K] }>;
 }
+
+/** A page of a long list (`?limit=20&offset=40`): at most 100 rows at a time, newest first by the list's own order. */
+export const pagingQuerySchema = z.object({
+  limit: z.coerce.number({ error: 'limit must be a whole number.' }).int('limit must be a whole number.').min(1, 'limit must be at least 1.').max(100, 'limit must be at most 100.').default(20),
+  offset: z.coerce.number({ error: 'offset must be a whole number.' }).int('offset must be a whole number.').min(0, 'offset must be 0 or more.').max(maxSerialId).default(0),
+});
+export type PagingQuery = z.infer<typeof pagingQuerySchema>;
+
+/** What a paged list answers beside its rows: how many there are in all, and which page this is. */
+export const pageShape = { total: z.number().int().nonnegative(), limit: z.number().int().positive(), offset: z.number().int().nonnegative() };

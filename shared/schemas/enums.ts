@@ -41,3 +41,19 @@ export type ImportKind = (typeof importKinds)[number];
 
 export const importStatuses = ['running', 'completed', 'partial', 'failed', 'duplicate'] as const;
 export type ImportStatus = (typeof importStatuses)[number];
+
+/** How a nightly run ended (docs/design.md §7): skipped when another run held the lock. */
+export const nightlyRunOutcomes = ['ok', 'partial', 'failed', 'skipped'] as const;
+export type NightlyRunOutcome = (typeof nightlyRunOutcomes)[number];
+
+/** What started a nightly run: `osmia nightly` (cron, by hand) or `osmia schedule`. */
+export const nightlyTriggers = ['cli', 'schedule'] as const;
+export type NightlyTrigger = (typeof nightlyTriggers)[number];
+
+/** The mail Osmia sends: the nightly digest, a membrane threshold first crossed, a nightly import that failed. */
+export const mailKinds = ['digest', 'membrane-alert', 'import-failure'] as const;
+export type MailKind = (typeof mailKinds)[number];
+
+/** The alerts of the performance KPI (shared/schemas/performance.ts, performanceAlertSchema.kind). */
+export const membraneAlertKinds = ['permeate-flow-drop', 'differential-pressure-rise', 'salt-passage-rise'] as const;
+export type MembraneAlertKind = (typeof membraneAlertKinds)[number];

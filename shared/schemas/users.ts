@@ -10,6 +10,8 @@ export const userSchema = z.object({
   name: z.string(),
   role: roleSchema,
   disabled: z.boolean(),
+  /** Receives the nightly digest (and the alert mails its role may read). */
+  digest: z.boolean(),
   createdAt: z.string(),
   lastLoginAt: z.string().nullable(),
 });
@@ -33,6 +35,7 @@ export const userCreateBodySchema = z.object({
   name: nameSchema.default(''),
   role: roleSchema,
   password: passwordSchema,
+  digest: z.boolean().default(false),
 });
 export type UserCreateBody = z.infer<typeof userCreateBodySchema>;
 
@@ -42,6 +45,7 @@ export const userUpdateBodySchema = z
     role: roleSchema,
     disabled: z.boolean(),
     password: passwordSchema,
+    digest: z.boolean(),
   })
   .partial()
   .refine((v) => Object.keys(v).length > 0, { message: 'nothing to change' });
@@ -50,4 +54,8 @@ export type UserUpdateBody = z.infer<typeof userUpdateBodySchema>;
 export const userIdParamsSchema = z.object({ id: idSchema });
 
 export const meSchema = z.object({ user: userSchema });
+
+/** PATCH /api/auth/me: what every user may change of their own account. */
+export const meUpdateBodySchema = z.object({ digest: z.boolean() }).strict();
+export type MeUpdateBody = z.infer<typeof meUpdateBodySchema>;
 export type Me = z.infer<typeof meSchema>;

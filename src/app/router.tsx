@@ -74,6 +74,14 @@ export function createAppRouter(queryClient: QueryClient) {
           lazy: () => import('./routes/reports.tsx').then((m) => ({ loader: m.createReportsLoader(queryClient), Component: m.ReportsRoute })),
         },
         {
+          path: relative(pageById('nightly').path),
+          lazy: () => import('./routes/nightly.tsx').then((m) => ({ loader: m.createNightlyLoader(queryClient), Component: m.NightlyRoute })),
+        },
+        {
+          path: relative(pageById('mail').path),
+          lazy: () => import('./routes/mail.tsx').then((m) => ({ loader: m.createMailLoader(queryClient), Component: m.MailRoute })),
+        },
+        {
           path: relative(pageById('users').path),
           lazy: () => import('./routes/users.tsx').then((m) => ({ loader: m.createUsersLoader(queryClient), Component: m.UsersRoute })),
         },

@@ -30,7 +30,9 @@ export const pages = [
   { id: 'performance', path: '/performance', label: 'Membrane performance', roles: readersOfKpis, ready: true },
   { id: 'imports', path: '/imports', label: 'Imports', roles: ['admin', 'engineer'], ready: true },
   { id: 'reports', path: '/reports', label: 'Reports', roles: everyone, ready: true },
+  { id: 'nightly', path: '/nightly', label: 'Nightly runs', roles: ['admin', 'engineer'], ready: true },
   { id: 'users', path: '/users', label: 'Users', roles: ['admin'], ready: true },
+  { id: 'mail', path: '/mail', label: 'Mail', roles: ['admin'], ready: true },
   { id: 'settings', path: '/settings', label: 'Settings', roles: everyone, editRoles: ['admin'], ready: true },
 ] as const satisfies readonly PageEntry[];
 

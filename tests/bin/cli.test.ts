@@ -24,7 +24,7 @@ function cliWithInput(input: string, ...args: string[]) {
 
 describe('bin/osmia', () => {
   it('prints help for every command and exits 0', () => {
-    for (const args of [['--help'], ['db', '--help'], ['import', '--help'], ['kpi', 'reliability', '--help'], ['refresh', '--help'], ['seed', '--help'], ['user', 'add', '--help'], ['serve', '--help']]) {
+    for (const args of [['--help'], ['db', '--help'], ['import', '--help'], ['kpi', 'reliability', '--help'], ['refresh', '--help'], ['seed', '--help'], ['user', 'add', '--help'], ['serve', '--help'], ['nightly', '--help'], ['schedule', '--help']]) {
       const r = cli(...args);
       expect(r.code, args.join(' ')).toBe(0);
       expect(r.out).toMatch(/Usage: osmia/);
@@ -36,6 +36,8 @@ describe('bin/osmia', () => {
     expect(cli('kpi', 'reliability', '--confidence', '2').code).toBe(2);
     expect(cli('user', 'add', '--email', 'x@y.example').code).toBe(2);
     expect(cli('db', 'reset').code).toBe(2);
+    expect(cli('nightly', '--today', '2025-02-30').code).toBe(2);
+    expect(cli('nightly', '--tz', 'Nowhere/Land').code).toBe(2);
   });
 
   it('db status --json names the database it uses', () => {

@@ -28,7 +28,9 @@ const briefTable: Record<string, Role[]> = {
   'Membrane performance': ['admin', 'engineer', 'manager'],
   Imports: ['admin', 'engineer'],
   Reports: all,
+  'Nightly runs': ['admin', 'engineer'],
   Users: ['admin'],
+  Mail: ['admin'],
   Settings: all,
 };
 // Pages whose API exists today; the others stay out of the navigation and the router.

@@ -12,6 +12,7 @@ const toUser = (row: Omit<UserRow, 'passwordHash' | 'sessionGeneration'>): User 
   name: row.name,
   role: row.role as Role,
   disabled: row.disabled,
+  digest: row.digest,
   createdAt: row.createdAt.toISOString(),
   lastLoginAt: row.lastLoginAt?.toISOString() ?? null,
 });
@@ -28,7 +29,7 @@ export async function listUsers(db: Db): Promise<User[]> {
 export async function findSessionUser(db: Db, id: number): Promise<{ user: User; sessionGeneration: number } | undefined> {
   const { rows } = await db.$client.query<Omit<UserRow, 'passwordHash'>>({
     name: 'session-user-by-id',
-    text: `select id, email, name, role, disabled, created_at as "createdAt", last_login_at as "lastLoginAt", session_generation as "sessionGeneration" from users where id = $1`,
+    text: `select id, email, name, role, disabled, digest, created_at as "createdAt", last_login_at as "lastLoginAt", session_generation as "sessionGeneration" from users where id = $1`,
     values: [id],
   });
   return rows[0] && { user: toUser(rows[0]), sessionGeneration: rows[0].sessionGeneration };
@@ -48,7 +49,7 @@ export async function findUserWithHash(db: Db, email: string): Promise<(User & {
 
 export async function insertUser(
   db: Db,
-  values: { email: string; name: string; role: Role; passwordHash: string },
+  values: { email: string; name: string; role: Role; passwordHash: string; digest?: boolean },
 ): Promise<User | undefined> {
   const [row] = await db.insert(users).values(values).onConflictDoNothing().returning();
   return row && toUser(row);
@@ -58,7 +59,7 @@ export async function insertUser(
 export async function updateUser(
   db: Db,
   id: number,
-  values: Partial<{ name: string; role: Role; disabled: boolean; passwordHash: string }>,
+  values: Partial<{ name: string; role: Role; disabled: boolean; passwordHash: string; digest: boolean }>,
   options: { endSessions?: boolean } = {},
 ): Promise<{ user: User; sessionGeneration: number } | undefined> {
   const set = options.endSessions ? { ...values, sessionGeneration: sql`${users.sessionGeneration} + 1` } : values;
@@ -89,4 +90,14 @@ export async function countOtherActiveAdmins(db: Db, exceptId: number): Promise<
 export async function countUsers(db: Db): Promise<number> {
   const [row] = await db.select({ n: sql<number>`count(*)::int` }).from(users);
   return row?.n ?? 0;
+}
+
+/** Who receives the nightly mail: enabled users who subscribed, by e-mail. */
+export async function listSubscribedUsers(db: Db): Promise<Pick<User, 'id' | 'email' | 'name' | 'role'>[]> {
+  const rows = await db
+    .select({ id: users.id, email: users.email, name: users.name, role: users.role })
+    .from(users)
+    .where(and(eq(users.digest, true), eq(users.disabled, false)))
+    .orderBy(asc(users.email));
+  return rows.map((r) => ({ ...r, role: r.role as Role }));
 }

@@ -1,5 +1,6 @@
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
+import { insertMailMessage } from '#server/db/queries/mail-messages.ts';
 import type { TestApp } from '../../setup/app.ts';
 import { importText } from '../importers/helpers.ts';
 
@@ -26,12 +27,25 @@ export async function accessFixtures(t: TestApp): Promise<Record<string, Fixture
   mkdirSync(join(t.env.REPORTS_DIR!, '2025-02-01'), { recursive: true });
   writeFileSync(join(t.env.REPORTS_DIR!, '2025-02-01', 'manager-ACC-2025-01-01-2025-02-01.xlsx'), 'a stored workbook');
   const reportWindow = 'site=ACC&from=2025-01-01&to=2025-02-01';
+  const messageId = await insertMailMessage(t.db.$client, {
+    envelopeFrom: 'osmia@osmia.test',
+    envelopeTo: ['manager@osmia.test'],
+    from: 'Osmia <osmia@osmia.test>',
+    to: 'manager@osmia.test',
+    subject: 'A received message',
+    messageId: null,
+    text: 'Text part',
+    html: '<p>HTML part</p>',
+    attachments: [],
+    size: 100,
+  });
   return {
     'GET /api/health': { method: 'get', url: '/api/health' },
     'GET /api/openapi.json': { method: 'get', url: '/api/openapi.json' },
     'POST /api/auth/login': { method: 'post', url: '/api/auth/login', body: { email: 'admin@test.example', password: 'admin-password-1' } },
     'POST /api/auth/logout': { method: 'post', url: '/api/auth/logout', endsSession: true },
     'GET /api/auth/me': { method: 'get', url: '/api/auth/me' },
+    'PATCH /api/auth/me': { method: 'patch', url: '/api/auth/me', body: { digest: true } },
     'GET /api/users': { method: 'get', url: '/api/users' },
     'POST /api/users': {
       method: 'post',
@@ -72,5 +86,8 @@ export async function accessFixtures(t: TestApp): Promise<Record<string, Fixture
     'GET /api/reports/manager.xlsx': { method: 'get', url: `/api/reports/manager.xlsx?${reportWindow}` },
     'GET /api/reports/engineer.xlsx': { method: 'get', url: `/api/reports/engineer.xlsx?${reportWindow}` },
     'GET /api/reports/stored/:date/:file': { method: 'get', url: '/api/reports/stored/2025-02-01/manager-ACC-2025-01-01-2025-02-01.xlsx' },
+    'GET /api/nightly-runs': { method: 'get', url: '/api/nightly-runs?limit=5' },
+    'GET /api/mail': { method: 'get', url: '/api/mail?limit=5&offset=0' },
+    'GET /api/mail/:id': { method: 'get', url: `/api/mail/${messageId}` },
   };
 }

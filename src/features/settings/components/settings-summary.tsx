@@ -6,7 +6,7 @@ import { settingGroups, unitOf, type SettingField } from '../utils/setting-field
 
 function displayValue(field: SettingField, settings: Settings): string {
   const value = settings[field.key];
-  if (Array.isArray(value)) return value.length === 0 ? 'nobody yet' : value.join(', ');
+  if (Array.isArray(value)) return value.length === 0 ? 'none beside the subscribed users' : value.join(', ');
   if (typeof value === 'number') {
     if (field.key === 'confidence') return `${formatNumber(value, 4)} (${formatNumber(value * 100, 2)} %)`;
     return formatSignificant(value, 4);

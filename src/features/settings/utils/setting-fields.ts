@@ -164,13 +164,13 @@ export const settingGroups: SettingGroup[] = [
   },
   {
     title: 'Nightly digest',
-    description: 'Who receives the e-mail summary after each nightly run.',
+    description: 'Users subscribe themselves above (or an administrator does it on the Users page). Addresses listed here receive the digest too, with what a manager reads.',
     fields: [
       {
         key: 'digestRecipients',
         label: 'Digest recipients',
         kind: 'emails',
-        hint: 'One e-mail address per line.',
+        hint: 'One e-mail address per line. An address that belongs to a user is left to that user’s own choice.',
         rule: 'Enter one valid e-mail address per line.',
       },
     ],

@@ -2,6 +2,7 @@ import type { Role } from '#shared/schemas/enums.ts';
 import type { User } from '#shared/schemas/users.ts';
 import { Badge } from '../../../components/ui/badge.tsx';
 import { Button } from '../../../components/ui/button.tsx';
+import { Checkbox } from '../../../components/ui/checkbox.tsx';
 import { Select } from '../../../components/ui/select.tsx';
 import { showToast } from '../../../components/ui/toast.tsx';
 import { Table, type Column } from '../../../components/ui/table.tsx';
@@ -36,6 +37,30 @@ function RoleCell({ user, onChanged }: { user: User; onChanged?: (user: User) =>
           {
             onSuccess: (changed) => {
               showToast({ tone: 'success', title: 'Role changed', message: `${changed.email} is now ${roleLabels[changed.role]}.` });
+              onChanged?.(changed);
+            },
+          },
+        )
+      }
+    />
+  );
+}
+
+function DigestCell({ user, onChanged }: { user: User; onChanged?: (user: User) => void }) {
+  const update = useUpdateUser('The subscription was not changed');
+  const checked = update.isPending ? Boolean(update.variables?.changes.digest) : user.digest;
+  return (
+    <Checkbox
+      label={`Nightly digest for ${user.email}`}
+      className="[&_label]:sr-only"
+      checked={checked}
+      disabled={update.isPending}
+      onChange={(e) =>
+        update.mutate(
+          { id: user.id, changes: { digest: e.target.checked } },
+          {
+            onSuccess: (changed) => {
+              showToast({ tone: 'success', title: changed.digest ? 'Subscribed' : 'Unsubscribed', message: `${changed.email} ${changed.digest ? 'gets' : 'no longer gets'} the nightly digest.` });
               onChanged?.(changed);
             },
           },
@@ -95,6 +120,7 @@ export function UsersTable({ users, currentUserId, onSetPassword, onChanged }: U
       sortValue: (u) => (u.disabled ? 1 : 0),
       cell: (u) => (u.disabled ? <Badge tone="fault">Disabled</Badge> : <Badge tone="ok">Active</Badge>),
     },
+    { id: 'digest', header: 'Digest', sortValue: (u) => (u.digest ? 0 : 1), cell: (u) => <DigestCell user={u} onChanged={onChanged} /> },
     {
       id: 'lastLogin',
       header: 'Last sign-in',
@@ -121,6 +147,7 @@ export function UsersTable({ users, currentUserId, onSetPassword, onChanged }: U
       rows={users}
       rowKey={(u) => u.id}
       initialSort={{ id: 'email', direction: 'ascending' }}
+      dense
     />
   );
 }
