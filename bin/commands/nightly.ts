@@ -10,7 +10,7 @@ import { nightlyZone, runNightly, type NightlyOptions } from '#server/jobs/night
 import { startFakeSmtp } from '#server/mail/fake-smtp.ts';
 import { instantText } from '#server/mail/format.ts';
 import { createMailer, type Mailer } from '#server/mail/transport.ts';
-import { inboxDir, nightlyEnv } from '../config.ts';
+import { inboxDir, nightlyEnv, reportsDir } from '../config.ts';
 import { formatNightlyRun, nightlyExitCode } from '../formatters/nightly.ts';
 import { formatJson, stdio } from '../output.ts';
 import { action, CliError } from '../run.ts';
@@ -83,6 +83,7 @@ function nightlyOptions(flags: Flags, env: NightlyEnv, trigger: NightlyOptions['
     columnMap: columnMap(flags.map),
     reportDate: flags.today,
     timeZone: env.NIGHTLY_TZ,
+    reportsDir: reportsDir(),
     publicUrl: env.PUBLIC_URL,
     log,
   };

@@ -30,10 +30,12 @@ import { detectKind } from '../importers/detect.ts';
 import { fileFingerprint, sha256File } from '../importers/run.ts';
 import { queueImportFailureMail, recordMembraneAlerts } from '../mail/alerts.ts';
 import { buildDigest, type Recipient } from '../mail/digest.ts';
-import { dayInZone, siteReport, type SiteReport } from '../mail/figures.ts';
+import { dayInZone, digestWindows, siteReport, type SiteReport } from '../mail/figures.ts';
 import { instantText } from '../mail/format.ts';
 import { flushOutbox } from '../mail/outbox.ts';
 import type { Mailer } from '../mail/transport.ts';
+import { reportFileName, workbooks, writeReport } from '../reports/index.ts';
+import { defaultReportsDir } from '../reports/stored.ts';
 import { importFile } from '../services/imports.ts';
 import { resolveSite } from '../services/scope.ts';
 import { getSettings } from '../services/settings.ts';
@@ -58,6 +60,8 @@ export interface NightlyOptions {
   reportDate?: string;
   /** Zone of "today" and of the done/<date>/ folders: NIGHTLY_TZ, else the first site's, else UTC. */
   timeZone?: string;
+  /** Where the day's workbooks go (reports/<date>/ below it): REPORTS_DIR, else reports/ at the project root. */
+  reportsDir?: string;
   publicUrl: string;
   /** Null when no SMTP server is configured: mail is queued and waits in the outbox. */
   mailer: Mailer | null;
@@ -251,11 +255,36 @@ export const mailStep: NightlyStepDefinition = {
 };
 
 /**
- * The steps of a run, in order. The workbooks step (writing each role's spreadsheet and adding it to
- * `ctx.workbooks`, which the mail step attaches to the digest of the roles it is for) goes between
- * refresh and mail.
+ * Every workbook of every site for the last 7 days of the digest (reports/<date>/<name>-<site>-<from>-<to>.xlsx,
+ * listed on the Reports page), each added to `ctx.workbooks` for the digest of the roles that may have it.
+ * A workbook that cannot be written fails alone: the others are still written and mailed, and the step says which.
  */
-export const nightlySteps: readonly NightlyStepDefinition[] = [importsStep, refreshStep, mailStep];
+export const workbooksStep: NightlyStepDefinition = {
+  name: 'workbooks',
+  run: async (ctx) => {
+    const settings = await getSettings(ctx.db);
+    const window = digestWindows(ctx.reportDate).find((w) => w.label === 'last-7-days')!;
+    const folder = join(ctx.options.reportsDir ?? defaultReportsDir, ctx.reportDate);
+    const failed: string[] = [];
+    for (const site of await listSites(ctx.db.$client)) {
+      for (const workbook of workbooks) {
+        const fileName = reportFileName(workbook.name, site.code, { fromDay: window.from, toDay: window.to });
+        try {
+          const written = await writeReport(ctx.db, { name: workbook.name, site: site.code, from: window.from, to: window.to }, join(folder, fileName), settings);
+          ctx.workbooks.push({ audience: workbook.access, attachment: { filename: fileName, path: written.path } });
+        } catch (err) {
+          failed.push(`${fileName}: ${err instanceof Error ? err.message : String(err)}`);
+        }
+      }
+    }
+    const summary = `${ctx.workbooks.length} workbook${ctx.workbooks.length === 1 ? '' : 's'} in ${folder}`;
+    if (failed.length > 0) throw new Error(`${summary}; not written: ${failed.join('; ')}`);
+    return summary;
+  },
+};
+
+/** The steps of a run, in order: a step that fails is recorded, and the next ones still run. */
+export const nightlySteps: readonly NightlyStepDefinition[] = [importsStep, refreshStep, workbooksStep, mailStep];
 
 /** How a run ended, from its files and steps: failed when the data could not be brought up to date, partial when something else did not go. */
 export function runOutcome(files: readonly NightlyFile[], steps: readonly NightlyStep[]): NightlyRunOutcome {

@@ -7,6 +7,7 @@ import { copyFileSync, existsSync, mkdtempSync, readdirSync, readFileSync, write
 import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import ExcelJS from 'exceljs';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { nightlyRunSchema, type NightlyRun } from '#shared/schemas/nightly.ts';
@@ -23,12 +24,14 @@ import { spawnCli } from '../setup/cli.ts';
 let t: TestApp;
 let smtp: FakeSmtp;
 let inbox: string;
+let reportsDir: string;
 const mailEnv = { MAIL_FROM: 'Osmia <osmia@osmia.test>', PUBLIC_URL: 'http://osmia.test:3000' };
 
 beforeAll(async () => {
   t = await createTestApp();
   smtp = await startFakeSmtp(t.db);
   inbox = mkdtempSync(join(tmpdir(), 'osmia-inbox-'));
+  reportsDir = mkdtempSync(join(tmpdir(), 'osmia-reports-'));
   // The manager and the engineer subscribe themselves; the admin subscribes the finance user.
   for (const role of ['manager', 'engineer'] as const) {
     const res = await request(t.app).patch('/api/auth/me').set('Cookie', t.cookies[role]).send({ digest: true });
@@ -45,7 +48,7 @@ afterAll(async () => {
 });
 
 function nightly(args: string[], env: Record<string, string> = {}) {
-  return spawnCli(t.url, ['nightly', '--inbox', inbox, '--json', ...args], { SMTP_URL: smtp.url, ...mailEnv, ...env });
+  return spawnCli(t.url, ['nightly', '--inbox', inbox, '--json', ...args], { SMTP_URL: smtp.url, REPORTS_DIR: reportsDir, ...mailEnv, ...env });
 }
 
 async function runNightly(args: string[], env: Record<string, string> = {}): Promise<{ code: number | null; run: NightlyRun; err: string }> {
@@ -65,16 +68,20 @@ interface Received {
   subject: string;
   text: string;
   html: string | null;
+  attachments: { filename: string | null; contentType: string; size: number }[];
 }
 
 async function received(): Promise<Received[]> {
-  const { rows } = await t.db.$client.query<Received>(`select id, to_header as "to", subject, text, html from mail_messages order by id`);
+  const { rows } = await t.db.$client.query<Received>(`select id, to_header as "to", subject, text, html, attachments from mail_messages order by id`);
   return rows;
 }
 
 async function importCount(): Promise<number> {
   return Number((await t.db.$client.query(`select count(*) as n from imports`)).rows[0].n);
 }
+
+/** The calendar day `days` from an ISO day. */
+const addDaysIso = (day: string, days: number) => new Date(Date.parse(`${day}T00:00:00Z`) + days * 86_400_000).toISOString().slice(0, 10);
 
 const put = (name: string, content: string) => writeFileSync(join(inbox, name), content);
 const waiting = () => readdirSync(inbox, { withFileTypes: true }).filter((e) => e.isFile()).map((e) => e.name);
@@ -106,6 +113,7 @@ describe('osmia nightly', () => {
     expect(run.steps.map((s) => [s.name, s.status])).toEqual([
       ['imports', 'ok'],
       ['refresh', 'ok'],
+      ['workbooks', 'ok'],
       ['mail', 'ok'],
     ]);
     expect(waiting()).toEqual([]);
@@ -162,6 +170,19 @@ describe('osmia nightly', () => {
     expect(engineer.text).toContain('5-<em>plant.csv');
     expect(engineer.html).toContain('5-&lt;em&gt;plant.csv');
     expect(engineer.html).not.toContain('<em>plant');
+
+    // The day's workbooks (last 7 days) in reports/<date>/, each attached to the digest of the roles that may
+    // have it (docs/design.md §2): finance gets finance and manager, the engineer engineer and manager.
+    const week7 = `OPS-${addDaysIso(firstDay, -7)}-${firstDay}.xlsx`;
+    expect(readdirSync(join(reportsDir, firstDay)).sort()).toEqual([`engineer-${week7}`, `finance-${week7}`, `manager-${week7}`]);
+    const attached = (m: Received) => m.attachments.map((a) => a.filename).sort();
+    expect(attached(manager)).toEqual([`manager-${week7}`]);
+    expect(attached(finance)).toEqual([`finance-${week7}`, `manager-${week7}`]);
+    expect(attached(engineer)).toEqual([`engineer-${week7}`, `manager-${week7}`]);
+    expect(manager.attachments[0]!.contentType).toBe('application/vnd.openxmlformats-officedocument.spreadsheetml.sheet');
+    const book = new ExcelJS.Workbook();
+    await book.xlsx.readFile(join(reportsDir, firstDay, `manager-${week7}`));
+    expect(book.worksheets.length).toBeGreaterThan(1);
 
     // The membrane alert, to those whose role reads membrane performance, with the cleaning cautions (docs/design.md §9).
     const alerts = mail.filter((m) => m.subject.startsWith('Osmia membrane alert'));
