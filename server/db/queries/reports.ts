@@ -1,6 +1,7 @@
 // Rows the workbooks list beside the KPI answers (server/reports/): the work orders behind a cost total,
 // the failure list, the import history and its rejects. Totals come from the KPI answers; these are
 // the lines under them.
+import type { WorkOrderRecord } from '#shared/kpi/work-orders.ts';
 import type { Queryable } from './queryable.ts';
 
 /** A closed work order's cost, with its asset, for the cost table by month, asset and type. */
@@ -29,25 +30,8 @@ export async function listCostLines(q: Queryable, siteId: number, woNumbers: rea
   return rows;
 }
 
-/** A failure as the engineer's list shows it. */
-export interface FailureLine {
-  woNumber: string;
-  assetCode: string;
-  assetKind: string;
-  failureCode: string;
-  priority: string;
-  status: string;
-  reportedAt: Date;
-  startedAt: Date | null;
-  completedAt: Date | null;
-  outOfServiceFrom: Date | null;
-  outOfServiceTo: Date | null;
-  labourHours: number;
-  labourCost: number;
-  partsCost: number;
-  crew: string | null;
-  description: string;
-}
+/** A failure as the engineer's list shows it: the shared work-order record, its asset by code and kind, its failure code set. */
+export type FailureLine = Omit<WorkOrderRecord, 'asset' | 'type' | 'failureCode'> & { assetCode: string; assetKind: string; failureCode: string };
 
 /**
  * The failures of a site reported in [from, to): corrective work orders with a failure code, not
