@@ -77,10 +77,19 @@ export interface OperatingTimeResult {
 
 /** Epoch milliseconds of a Date, refusing an invalid one with a message naming the field. */
 export function instantMs(value: Date, what: string): number {
-  if (!(value instanceof Date)) throw new TypeError(`${what} must be a Date`);
-  const ms = value.getTime();
-  if (!Number.isFinite(ms)) throw new RangeError(`${what} is not a valid date`);
+  const ms = validMs(value);
+  if (Number.isNaN(ms)) throw instantError(value, what);
   return ms;
+}
+
+/** `value` in milliseconds, NaN when it is not a valid Date: the hot paths' check, naming the value only on error. */
+export function validMs(value: Date): number {
+  return value instanceof Date ? value.getTime() : Number.NaN;
+}
+
+/** The error for a value `validMs` found wrong, named `what`. */
+export function instantError(value: unknown, what: string): Error {
+  return value instanceof Date ? new RangeError(`${what} is not a valid date`) : new TypeError(`${what} must be a Date`);
 }
 
 /** Validates a window and returns it in milliseconds; `from` after `to` is an error, equal is an empty window. */
@@ -137,10 +146,13 @@ export function overlapMs(a: MsInterval, b: MsInterval): number {
   return Math.max(0, Math.min(a.toMs, b.toMs) - Math.max(a.fromMs, b.fromMs));
 }
 
-function checkedSample(sample: RunStatusSample, what: string): { ms: number; running: boolean } {
-  const ms = instantMs(sample.time, `${what}.time`);
+function checkedSample(sample: RunStatusSample, what: string | number): { ms: number; running: boolean } {
+  // `what`: the sample's index in `samples`, or its name; the message is built only on error.
+  const name = () => (typeof what === 'number' ? `samples[${what}]` : what);
+  const ms = validMs(sample.time);
+  if (Number.isNaN(ms)) throw instantError(sample.time, `${name()}.time`);
   if (sample.value !== 0 && sample.value !== 1) {
-    throw new RangeError(`${what}.value must be 1 (running) or 0 (stopped), got ${String(sample.value)}`);
+    throw new RangeError(`${name()}.value must be 1 (running) or 0 (stopped), got ${String(sample.value)}`);
   }
   return { ms, running: sample.value === 1 };
 }
@@ -162,7 +174,7 @@ export function runStateSpans(
 ): { spans: StateSpan[]; notes: string[]; stateBeforeWindow: RunState } {
   const w = windowMs(window);
   const notes: string[] = [];
-  const checked = samples.map((s, i) => checkedSample(s, `samples[${i}]`));
+  const checked = samples.map((s, i) => checkedSample(s, i));
   if (priorSample) {
     const prior = checkedSample(priorSample, 'priorSample');
     if (prior.ms >= w.fromMs) {
