@@ -1,11 +1,14 @@
 // The engineer workbook: the element register with each element's age and its conditional risk (the
 // forecast answer's probability of a life-ending event over its horizon, given the element's age), the
 // failure list (corrective work orders with a failure code), and the import history with its rejects.
-import { lifeEndingReasons } from '#shared/schemas/enums.ts';
+import { isFailure, type WorkOrderRecord } from '#shared/kpi/work-orders.ts';
+import { lifeEndingReasons, type AssetKind } from '#shared/schemas/enums.ts';
 import type { ForecastReport } from '#shared/schemas/forecast.ts';
 import { listAssets } from '../db/queries/assets.ts';
 import { listElementInstalls } from '../db/queries/elements.ts';
-import { listFailures, listSiteImports, listSiteRejects, type FailureLine, type ImportLine, type RejectLine } from '../db/queries/reports.ts';
+import { listSiteImports, listSiteRejects, type ImportLine, type RejectLine } from '../db/queries/reports.ts';
+import { listWorkOrdersReportedIn } from '../db/queries/work-orders.ts';
+import { workOrderRecords } from '../services/work-orders.ts';
 import { forecastKpi, reliabilityKpi } from '../services/kpi-catalog.ts';
 import { Formula, formatsAt, sumOf, type Book } from './book.ts';
 import { askKpi, freshnessOfAnswers, type ReportContext } from './context.ts';
@@ -29,6 +32,21 @@ export interface RegisterRow {
   ageDays: number;
   /** The forecast's probability of a life-ending event over its horizon, given survival to the window's end; null when not forecast. */
   risk: number | null;
+}
+
+/** A failure as the list shows it: the shared work-order record, its asset's kind, its failure code trimmed. */
+export type FailureLine = WorkOrderRecord & { assetKind: AssetKind; failureCode: string };
+
+/** The site's failures reported in the window, by the one rule MTBF counts by (`isFailure`), by reported time. */
+async function failuresOf(ctx: ReportContext): Promise<FailureLine[]> {
+  const [assets, orders] = await Promise.all([
+    listAssets(ctx.db.$client, ctx.site.id),
+    listWorkOrdersReportedIn(ctx.db.$client, ctx.site.id, ctx.window.from, ctx.window.to),
+  ]);
+  const kindOf = new Map(assets.map((a) => [a.code, a.kind]));
+  return workOrderRecords(orders, assets)
+    .filter(isFailure)
+    .map((wo) => ({ ...wo, assetKind: kindOf.get(wo.asset)!, failureCode: wo.failureCode!.trim() }));
 }
 
 export interface EngineerContent {
@@ -100,7 +118,7 @@ export async function loadEngineer(ctx: ReportContext): Promise<EngineerContent>
   const [forecast, reliability] = await Promise.all([askKpi(forecastKpi, ctx), askKpi(reliabilityKpi, ctx)]);
   const [register, failures, imports, rejects] = await Promise.all([
     registerOf(ctx, forecast),
-    listFailures(ctx.db.$client, ctx.site.id, ctx.window.from, ctx.window.to),
+    failuresOf(ctx),
     listSiteImports(ctx.db.$client, ctx.site.id),
     listSiteRejects(ctx.db.$client, ctx.site.id, rejectSheetLimit),
   ]);
@@ -183,7 +201,7 @@ async function writeFailures(book: Book, c: EngineerContent): Promise<void> {
     const oos = f.outOfServiceFrom && f.outOfServiceTo ? (f.outOfServiceTo.getTime() - f.outOfServiceFrom.getTime()) / 3_600_000 : null;
     await sheet.row([
       f.woNumber,
-      f.assetCode,
+      f.asset,
       f.assetKind,
       f.failureCode,
       f.priority,

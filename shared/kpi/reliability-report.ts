@@ -24,6 +24,7 @@ import {
   operationalAvailability,
 } from './reliability.ts';
 import { nullBecause, type NullReason, type Ratio } from './stats.ts';
+import { isFailure } from './work-orders.ts';
 
 const MS_PER_HOUR = 3_600_000;
 
@@ -94,11 +95,6 @@ type UnitTime = ReliabilityReport['operatingTime']['units'][number] & {
   windowHours: number;
   notes: string[];
 };
-
-/** A failure (docs/design.md §6): a corrective work order with a failure code, not cancelled. */
-export function isFailure(wo: ReliabilityWorkOrder): boolean {
-  return wo.type === 'corrective' && wo.status !== 'cancelled' && (wo.failureCode ?? '').trim() !== '';
-}
 
 /** Run-status tags by asset: the first by name when an asset has several (noted). */
 function runStatusTagsByAsset<T extends ReliabilityTag>(tags: readonly T[]): { runTagOf: Map<number, T>; notes: string[] } {

@@ -24,3 +24,11 @@ export interface WorkOrderRecord {
   partsCost: number;
   crew: string | null;
 }
+
+/**
+ * A failure (docs/design.md §6): a corrective work order with a failure code, not cancelled. The one
+ * rule MTBF counts by and the engineer workbook lists by. Type and status may be a row's text.
+ */
+export function isFailure(wo: { type: string; status: string; failureCode: string | null }): boolean {
+  return wo.type === 'corrective' && wo.status !== 'cancelled' && (wo.failureCode ?? '').trim() !== '';
+}

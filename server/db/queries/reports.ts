@@ -1,7 +1,6 @@
 // Rows the workbooks list beside the KPI answers (server/reports/): the work orders behind a cost total,
-// the failure list, the import history and its rejects. Totals come from the KPI answers; these are
+// the import history and its rejects. Totals come from the KPI answers; these are
 // the lines under them.
-import type { WorkOrderRecord } from '#shared/kpi/work-orders.ts';
 import type { Queryable } from './queryable.ts';
 
 /** A closed work order's cost, with its asset, for the cost table by month, asset and type. */
@@ -26,28 +25,6 @@ export async function listCostLines(q: Queryable, siteId: number, woNumbers: rea
      where w.site_id = $1 and w.wo_number = any($2::text[]) and w.completed_at is not null
      order by w.completed_at, w.wo_number`,
     [siteId, woNumbers],
-  );
-  return rows;
-}
-
-/** A failure as the engineer's list shows it: the shared work-order record, its asset by code and kind, its failure code set. */
-export type FailureLine = Omit<WorkOrderRecord, 'asset' | 'type' | 'failureCode'> & { assetCode: string; assetKind: string; failureCode: string };
-
-/**
- * The failures of a site reported in [from, to): corrective work orders with a failure code, not
- * cancelled (docs/design.md §6, Failure — the rule the reliability KPI counts by), by reported time.
- */
-export async function listFailures(q: Queryable, siteId: number, from: Date, to: Date): Promise<FailureLine[]> {
-  const { rows } = await q.query<FailureLine>(
-    `select w.wo_number as "woNumber", a.code as "assetCode", a.kind as "assetKind", btrim(w.failure_code) as "failureCode",
-            w.priority, w.status, w.reported_at as "reportedAt", w.started_at as "startedAt", w.completed_at as "completedAt",
-            w.out_of_service_from as "outOfServiceFrom", w.out_of_service_to as "outOfServiceTo",
-            w.labour_hours as "labourHours", w.labour_cost as "labourCost", w.parts_cost as "partsCost", w.crew, w.description
-     from work_orders w join assets a on a.id = w.asset_id
-     where w.site_id = $1 and w.type = 'corrective' and w.status <> 'cancelled' and btrim(coalesce(w.failure_code, '')) <> ''
-       and w.reported_at >= $2 and w.reported_at < $3
-     order by w.reported_at, w.wo_number`,
-    [siteId, from, to],
   );
   return rows;
 }

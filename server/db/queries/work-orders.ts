@@ -112,3 +112,14 @@ export function listWorkOrdersReportedOrOutOfServiceIn(
 export function listPreventiveWorkOrders(q: Queryable, siteId: number, assetIds: readonly number[], to: Date): Promise<WorkOrderRow[]> {
   return listOnAssets(q, siteId, assetIds, "type = 'preventive' and reported_at < $3", [to]);
 }
+
+/** Every work order of the site reported in [from, to), by reported time then number. */
+export async function listWorkOrdersReportedIn(q: Queryable, siteId: number, from: Date, to: Date): Promise<WorkOrderRow[]> {
+  const { rows } = await q.query<WorkOrderRow>(
+    `select ${workOrderColumns} from work_orders
+     where site_id = $1 and reported_at >= $2 and reported_at < $3
+     order by reported_at, wo_number`,
+    [siteId, from, to],
+  );
+  return rows;
+}

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { elementLifeReportSchema } from '#shared/schemas/element-life.ts';
 import { formatElementLife } from '#bin/formatters/element-life.ts';
+import { groupWithoutEvents } from '../../fixtures/element-life.ts';
 import { freshAnswer } from '../../fixtures/freshness.ts';
 
 // Figures of the Lieblein & Zelen (1956) ball-bearing fit (reference/checks.json), as days. The fields the
@@ -30,22 +31,7 @@ const report = elementLifeReportSchema.parse({
       medianRankRegression: null,
       reasons: { medianRankRegression: 'too-few-events' },
     },
-    {
-      key: 'position=2',
-      n: 2,
-      events: 0,
-      enteredLate: 0,
-      weibull: null,
-      b10Days: null,
-      medianDays: null,
-      meanDays: null,
-      kmMedianDays: null,
-      kmMedianLowerDays: null,
-      kmMedianUpperDays: null,
-      km: [],
-      medianRankRegression: null,
-      reasons: { weibull: 'no-events' },
-    },
+    groupWithoutEvents('position=2', 2, { reasons: { weibull: 'no-events' } }),
   ],
   windowTreatment: { enteredLate: 0, censoredAtEnd: 2, text: 'Lives still in service at the window end are censored there.' },
   notes: ['Lives still in service at the window end are censored there.'],

@@ -1,7 +1,9 @@
 import { describe, expect, it } from 'vitest';
 
 import { fitWeibull, kaplanMeier, weibullLifeStats, weibullMedianRankRegression } from '#shared/kpi/element-life.ts';
+import { weibullOut } from '#shared/kpi/element-life-report.ts';
 import { elementLifeQuerySchema, elementLifeReportSchema } from '#shared/schemas/element-life.ts';
+import { groupWithoutEvents } from '../../fixtures/element-life.ts';
 import { freshAnswer } from '../../fixtures/freshness.ts';
 
 describe('element-life query', () => {
@@ -26,16 +28,7 @@ describe('element-life answers follow docs/design.md §7', () => {
           key: 'position=1',
           n: times.length,
           events: 5,
-          weibull: {
-            shape: fit.shape,
-            scaleDays: fit.scale,
-            shapeLower: fit.shapeLower,
-            shapeUpper: fit.shapeUpper,
-            scaleLowerDays: fit.scaleLower,
-            scaleUpperDays: fit.scaleUpper,
-            logLik: fit.logLik,
-            intervalMethod: fit.intervalMethod,
-          },
+          weibull: weibullOut(fit),
           b10Days: life.b10,
           medianDays: life.median,
           meanDays: life.mean,
@@ -50,22 +43,10 @@ describe('element-life answers follow docs/design.md §7', () => {
             correlation: mrr.correlation,
           },
         },
-        {
-          key: 'all',
-          n: 2,
-          events: 0,
-          enteredLate: 0,
-          weibull: null,
-          b10Days: null,
-          medianDays: null,
-          meanDays: null,
-          kmMedianDays: null,
-          kmMedianLowerDays: null,
-          kmMedianUpperDays: null,
+        groupWithoutEvents('all', 2, {
           km: [{ tDays: 100, survival: 1, nRisk: 2, nEvents: 0, nCensored: 2, se: 0, lower: 1, upper: 1 }],
-          medianRankRegression: null,
           reasons: { weibull: 'no-events', kmMedianDays: 'not-reached' },
-        },
+        }),
       ],
       site: 'PLANT',
       from: '2025-01-01T00:00:00.000Z',

@@ -19,18 +19,9 @@ describe('forecast query', () => {
 
 describe('forecast answers follow docs/design.md §7', () => {
   it('forecast: months with expected count, cost and band', () => {
-    const month = {
-      label: '2026-01',
-      from: '2026-01-01T00:00:00.000Z',
-      to: '2026-02-01T00:00:00.000Z',
-      expectedCount: 0.4,
-      expectedCost: 248,
-      countLower: 0.2,
-      countUpper: 0.7,
-      costLower: 124,
-      costUpper: 434,
-      partial: false,
-    };
+    // One month, so the group's total is that month's figures.
+    const figures = { expectedCount: 0.4, expectedCost: 248, countLower: 0.2, countUpper: 0.7, costLower: 124, costUpper: 434 };
+    const month = { label: '2026-01', from: '2026-01-01T00:00:00.000Z', to: '2026-02-01T00:00:00.000Z', ...figures, partial: false };
     const answer = {
       ...freshAnswer,
       site: 'PLANT',
@@ -47,14 +38,7 @@ describe('forecast answers follow docs/design.md §7', () => {
           weibull: { shape: 2.1, scaleDays: 1500, shapeLower: 1.4, shapeUpper: 3, scaleLowerDays: 1200, scaleUpperDays: 1900, logLik: -61.2, intervalMethod: 'likelihood-ratio' },
           fitSource: 'group',
           months: [month],
-          total: {
-            expectedCount: 0.4,
-            expectedCost: 248,
-            countLower: 0.2,
-            countUpper: 0.7,
-            costLower: 124,
-            costUpper: 434,
-          },
+          total: figures,
           elements: [{ serial: 'E-7', ageDays: 1400, probability: 0.08 }],
         },
       ],
