@@ -6,8 +6,7 @@ import { mkdirSync, mkdtempSync } from 'node:fs';
 import type { Server } from 'node:http';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
+import type { Browser, Page } from 'playwright-core';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ZodType, z } from 'zod';
@@ -25,11 +24,10 @@ import { settingsSchema } from '#shared/schemas/settings.ts';
 import { openWorkOrdersSchema } from '#shared/schemas/work-orders.ts';
 import { seedDemo } from '#server/demo/seed.ts';
 import { refresh } from '#server/jobs/refresh.ts';
-import { buildClient, launchChromium, listen, tearDown } from './harness.ts';
-import { createTestApp, rolePasswords, type TestApp } from '../setup/app.ts';
+import { buildClient, closeSession, heading, launchChromium, listen, mainText, openSession, shot, shotsDir, signIn, tearDown } from './harness.ts';
+import { createTestApp, type TestApp } from '../setup/app.ts';
 import { runCli } from '../setup/cli.ts';
 
-const shotsDir = fileURLToPath(new URL('./screenshots', import.meta.url));
 
 let t: TestApp;
 let server: Server;
@@ -67,65 +65,10 @@ async function api<S extends ZodType>(role: Role, path: string, schema: S): Prom
 const int = (n: number) => new Intl.NumberFormat('en-GB', { maximumFractionDigits: 0 }).format(n);
 const euros = (n: number) => new Intl.NumberFormat('en-GB', { style: 'currency', currency: 'EUR', maximumFractionDigits: 0, minimumFractionDigits: 0 }).format(n);
 
-interface Session {
-  context: BrowserContext;
-  page: Page;
-  problems: () => string[];
-}
-
-async function openSession(viewport = { width: 1280, height: 860 }, timezoneId = timeZone): Promise<Session> {
-  const context = await browser.newContext({ viewport, locale: 'en-GB', timezoneId });
-  const page = await context.newPage();
-  const problems: string[] = [];
-  page.on('pageerror', (err) => problems.push(`page error: ${err.message}`));
-  page.on('console', (msg) => {
-    if (msg.type() !== 'error') return;
-    const url = msg.location().url ?? '';
-    // Without a session the client asks GET /api/auth/me and is answered 401 before it redirects.
-    if (/status of 401/.test(msg.text()) && url.endsWith('/api/auth/me')) return;
-    problems.push(`console error: ${msg.text()} (${url})`);
-  });
-  return { context, page, problems: () => [...problems] };
-}
-
-async function closeSession(s: Session) {
-  const problems = s.problems();
-  await s.context.close();
-  expect(problems).toEqual([]);
-}
-
-async function signIn(s: Session, role: Role, path: string) {
-  await s.page.goto(`${base}${path}`);
-  await s.page.waitForURL((url) => url.pathname === '/sign-in');
-  await s.page.getByLabel('E-mail').fill(`${role}@test.example`);
-  await s.page.getByLabel('Password').fill(rolePasswords[role]);
-  await s.page.getByRole('button', { name: 'Sign in' }).click();
-  await s.page.waitForURL((url) => url.pathname === path.split('?')[0]);
-}
-
-async function heading(page: Page, name: string) {
-  await page.getByRole('heading', { level: 1, name, exact: true }).waitFor();
-}
-
 /** Waits until `count` charts have drawn (they load on demand) and no section still shows a spinner. */
 async function chartsDrawn(page: Page, count: number) {
   await expect.poll(() => page.locator('figure [role="img"] svg').count(), { timeout: 20_000 }).toBeGreaterThanOrEqual(count);
   await expect.poll(() => page.getByRole('status').filter({ hasText: /Loading/ }).count(), { timeout: 20_000 }).toBe(0);
-}
-
-/** The text of the page's main region, checked for what a broken figure would print. */
-async function mainText(page: Page): Promise<string> {
-  const text = await page.getByRole('main').innerText();
-  for (const bad of ['NaN', 'undefined', 'Infinity', '[object Object]', 'could not be shown', 'null']) {
-    expect(text, `the page shows "${bad}"`).not.toContain(bad);
-  }
-  return text;
-}
-
-async function shot(page: Page, name: string) {
-  // No chart tooltip left open under the pointer.
-  await page.mouse.move(0, 0);
-  await page.screenshot({ path: join(shotsDir, `${name}.png`), fullPage: true });
 }
 
 describe('the KPI pages with the demo plant', () => {
@@ -136,8 +79,8 @@ describe('the KPI pages with the demo plant', () => {
     const mix = await api('admin', '/api/kpi/maintenance-mix', maintenanceMixReportSchema);
     const performance = await api('admin', '/api/kpi/performance', performanceReportSchema);
 
-    const s = await openSession();
-    await signIn(s, 'admin', '/');
+    const s = await openSession(browser, { timezoneId: timeZone });
+    await signIn(s, base, 'admin', '/');
     await heading(s.page, 'Dashboard');
     await s.page.getByRole('region', { name: 'Element replacements, next 12 months' }).waitFor();
     const trains = s.page.getByRole('region', { name: 'Trains' });
@@ -177,8 +120,8 @@ describe('the KPI pages with the demo plant', () => {
   it('dashboard (finance): only what the role may read, with costs in the plant’s currency', async () => {
     const settings = await api('finance', '/api/settings', settingsSchema);
     expect(settings.currency).toBe('EUR');
-    const s = await openSession();
-    await signIn(s, 'finance', '/');
+    const s = await openSession(browser, { timezoneId: timeZone });
+    await signIn(s, base, 'finance', '/');
     await heading(s.page, 'Dashboard');
     await s.page.getByRole('region', { name: 'Element replacements, next 12 months' }).waitFor();
     await s.page.getByRole('region', { name: 'Downtime' }).waitFor();
@@ -194,8 +137,8 @@ describe('the KPI pages with the demo plant', () => {
 
   it('reliability (engineer): per-asset table with bounds, MTBF chart, provenance, and a window kept in the address', async () => {
     const report = await api('engineer', '/api/kpi/reliability?groupBy=asset', reliabilityReportSchema);
-    const s = await openSession();
-    await signIn(s, 'engineer', '/reliability');
+    const s = await openSession(browser, { timezoneId: timeZone });
+    await signIn(s, base, 'engineer', '/reliability');
     await heading(s.page, 'Reliability');
     await chartsDrawn(s.page, 1);
     const table = s.page.getByRole('table');
@@ -232,8 +175,8 @@ describe('the KPI pages with the demo plant', () => {
   });
 
   it('reliability is refused to finance with the role panel, not a blank page', async () => {
-    const s = await openSession();
-    await signIn(s, 'finance', '/reliability');
+    const s = await openSession(browser, { timezoneId: timeZone });
+    await signIn(s, base, 'finance', '/reliability');
     await s.page.getByRole('heading', { name: 'Your role does not allow this page' }).waitFor();
     await shot(s.page, 'reliability-refused-finance');
     await closeSession(s);
@@ -242,8 +185,8 @@ describe('the KPI pages with the demo plant', () => {
   it('element life & forecast (finance): survival curves, Weibull table, forecast with its band and the vessel-work cautions', async () => {
     const life = await api('finance', '/api/kpi/element-life', elementLifeReportSchema);
     const forecast = await api('finance', '/api/kpi/forecast', forecastReportSchema);
-    const s = await openSession();
-    await signIn(s, 'finance', '/element-life');
+    const s = await openSession(browser, { timezoneId: timeZone });
+    await signIn(s, base, 'finance', '/element-life');
     await heading(s.page, 'Element life & forecast');
     await chartsDrawn(s.page, 2);
     const forecastCard = s.page.getByRole('region', { name: 'Replacement forecast, next 12 months' });
@@ -273,8 +216,8 @@ describe('the KPI pages with the demo plant', () => {
 
   it('time to complete (manager): groups with the quantile method, guided vs unguided, learning curve, jobs and the vessel-work cautions', async () => {
     const report = await api('manager', '/api/kpi/time-to-complete', timeToCompleteReportSchema);
-    const s = await openSession();
-    await signIn(s, 'manager', '/time-to-complete');
+    const s = await openSession(browser, { timezoneId: timeZone });
+    await signIn(s, base, 'manager', '/time-to-complete');
     await heading(s.page, 'Jobs / time to complete');
     await chartsDrawn(s.page, 1);
     const text = await mainText(s.page);
@@ -295,8 +238,8 @@ describe('the KPI pages with the demo plant', () => {
 
   it('downtime (finance): Pareto charts, totals with cost, and the stops', async () => {
     const report = await api('finance', '/api/kpi/downtime', downtimeReportSchema);
-    const s = await openSession();
-    await signIn(s, 'finance', '/downtime');
+    const s = await openSession(browser, { timezoneId: timeZone });
+    await signIn(s, base, 'finance', '/downtime');
     await heading(s.page, 'Downtime');
     await chartsDrawn(s.page, 2);
     const text = await mainText(s.page);
@@ -313,8 +256,8 @@ describe('the KPI pages with the demo plant', () => {
 
   it('membrane performance (engineer): every stage against its baseline, thresholds drawn, alerts with the cleaning cautions', async () => {
     const report = await api('engineer', '/api/kpi/performance', performanceReportSchema);
-    const s = await openSession();
-    await signIn(s, 'engineer', '/performance');
+    const s = await openSession(browser, { timezoneId: timeZone });
+    await signIn(s, base, 'engineer', '/performance');
     await heading(s.page, 'Membrane performance');
     // Three charts per stage: permeate flow, salt passage, differential pressure.
     await chartsDrawn(s.page, report.stages.length * 3);
@@ -343,8 +286,8 @@ describe('the KPI pages with the demo plant', () => {
     ].join('\n');
     const file = { name: 'e2e-work-orders.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) };
 
-    const s = await openSession();
-    await signIn(s, 'engineer', '/imports');
+    const s = await openSession(browser, { timezoneId: timeZone });
+    await signIn(s, base, 'engineer', '/imports');
     await heading(s.page, 'Imports');
     const history = s.page.getByRole('table', { name: /Import history/ });
     await expect.poll(() => history.getByRole('row').count()).toBe(before.imports.length + 1);
@@ -414,8 +357,8 @@ describe('the KPI pages with the demo plant', () => {
   });
 
   it('fits a phone-sized screen', async () => {
-    const s = await openSession({ width: 390, height: 844 });
-    await signIn(s, 'manager', '/');
+    const s = await openSession(browser, { viewport: { width: 390, height: 844 }, timezoneId: timeZone });
+    await signIn(s, base, 'manager', '/');
     await heading(s.page, 'Dashboard');
     await s.page.getByRole('region', { name: 'Element replacements, next 12 months' }).waitFor();
     await s.page.getByRole('region', { name: 'Trains' }).waitFor();
@@ -434,8 +377,8 @@ describe('the KPI pages with the demo plant', () => {
     expect(cli.code, cli.err).toBe(0);
     expect(downtimeReportSchema.parse(JSON.parse(cli.out))).toEqual(report);
     // The page's headline figures for the window in its address.
-    const s = await openSession();
-    await signIn(s, 'manager', `/downtime?from=${window.from}&to=${window.to}`);
+    const s = await openSession(browser, { timezoneId: timeZone });
+    await signIn(s, base, 'manager', `/downtime?from=${window.from}&to=${window.to}`);
     await heading(s.page, 'Downtime');
     await chartsDrawn(s.page, 2);
     const text = await mainText(s.page);
@@ -491,8 +434,8 @@ function readable(text: string, where: string) {
 describe('what a new user meets on the pages: readable axes, a first paint, one request per answer, text a person reads, role dashboards', () => {
   it.each([1280, 800])('membrane performance at %i px: every time axis has at least two labels and none overlaps another', async (width) => {
     const report = await api('engineer', '/api/kpi/performance', performanceReportSchema);
-    const s = await openSession({ width, height: 900 });
-    await signIn(s, 'engineer', '/performance');
+    const s = await openSession(browser, { viewport: { width, height: 900 }, timezoneId: timeZone });
+    await signIn(s, base, 'engineer', '/performance');
     await heading(s.page, 'Membrane performance');
     await chartsDrawn(s.page, report.stages.length * 3);
     const charts = await timeAxisLabels(s.page);
@@ -512,10 +455,10 @@ describe('what a new user meets on the pages: readable axes, a first paint, one 
   });
 
   it('a full load with a window in the address shows the loading shell at once, then the page, without the HydrateFallback warning', async () => {
-    const s = await openSession();
+    const s = await openSession(browser, { timezoneId: timeZone });
     const warnings: string[] = [];
     s.page.on('console', (msg) => warnings.push(msg.text()));
-    await signIn(s, 'engineer', '/');
+    await signIn(s, base, 'engineer', '/');
     await heading(s.page, 'Dashboard');
     // Slow answers, as a cold server gives them for a window nobody asked for yet.
     await s.page.route('**/api/kpi/**', async (route) => {
@@ -539,8 +482,8 @@ describe('what a new user meets on the pages: readable axes, a first paint, one 
   });
 
   it('dashboard and downtime ask for each KPI answer once per load, also when following the dashboard link', async () => {
-    const s = await openSession();
-    await signIn(s, 'manager', '/');
+    const s = await openSession(browser, { timezoneId: timeZone });
+    await signIn(s, base, 'manager', '/');
     await heading(s.page, 'Dashboard');
     const counts = new Map<string, number>();
     s.page.on('request', (r) => {
@@ -575,8 +518,8 @@ describe('what a new user meets on the pages: readable axes, a first paint, one 
 
   it('reliability (manager): MTBF keeps its unit on its line, wide bounds are marked and explained, and notes read as sentences', async () => {
     const report = await api('manager', '/api/kpi/reliability?groupBy=asset', reliabilityReportSchema);
-    const s = await openSession();
-    await signIn(s, 'manager', '/reliability');
+    const s = await openSession(browser, { timezoneId: timeZone });
+    await signIn(s, base, 'manager', '/reliability');
     await heading(s.page, 'Reliability');
     const table = s.page.getByRole('table');
     await expect.poll(() => table.getByRole('row').count()).toBe(report.groups!.length + 1);
@@ -600,8 +543,8 @@ describe('what a new user meets on the pages: readable axes, a first paint, one 
   });
 
   it('downtime: the Pareto’s 80 % label sits on its axis, clear of every bar and of the cumulative line', async () => {
-    const s = await openSession();
-    await signIn(s, 'finance', '/downtime');
+    const s = await openSession(browser, { timezoneId: timeZone });
+    await signIn(s, base, 'finance', '/downtime');
     await heading(s.page, 'Downtime');
     await chartsDrawn(s.page, 2);
     for (const name of ['Pareto by cause', 'Pareto by asset']) {
@@ -629,8 +572,8 @@ describe('what a new user meets on the pages: readable axes, a first paint, one 
   it('settings (manager): constants read with a sensible precision and their units', async () => {
     const settings = await api('manager', '/api/settings', settingsSchema);
     expect(settings.osmoticBarPerMgL).toBeCloseTo(0.000689475729, 12);
-    const s = await openSession();
-    await signIn(s, 'manager', '/settings');
+    const s = await openSession(browser, { timezoneId: timeZone });
+    await signIn(s, base, 'manager', '/settings');
     await heading(s.page, 'Settings');
     const text = await mainText(s.page);
     expect(text).not.toContain('0.000689475729');
@@ -647,8 +590,8 @@ describe('what a new user meets on the pages: readable axes, a first paint, one 
     ['finance', false, false],
   ];
   it.each(grids)('dashboard (%s): open work %s, server health %s, and no hole in the grid at 1280, 800 and 390 px', async (role, openWork, health) => {
-    const s = await openSession();
-    await signIn(s, role, '/');
+    const s = await openSession(browser, { timezoneId: timeZone });
+    await signIn(s, base, role, '/');
     for (const width of [1280, 800, 390]) {
       await s.page.setViewportSize({ width, height: 900 });
       await s.page.goto(`${base}/`);
@@ -683,8 +626,8 @@ describe('what a new user meets on the pages: readable axes, a first paint, one 
   it('open work (manager): the card lists the API’s open and overdue orders and the backlog hours, with the cautions', async () => {
     const open = await api('manager', '/api/work-orders/open?limit=8', openWorkOrdersSchema);
     expect(open.total).toBeGreaterThan(0);
-    const s = await openSession();
-    await signIn(s, 'manager', '/');
+    const s = await openSession(browser, { timezoneId: timeZone });
+    await signIn(s, base, 'manager', '/');
     const card = s.page.getByRole('region', { name: 'Open work' });
     await card.waitFor();
     const text = await card.innerText();
@@ -709,8 +652,8 @@ describe('what a new user meets on the pages: readable axes, a first paint, one 
       const report = await api('finance', '/api/kpi/downtime', downtimeReportSchema);
       expect(report.derivedUpToDate).toBe(false);
       expect(report.warnings).toEqual([expect.stringContaining('Run "bin/osmia refresh", then ask again.')]);
-      const s = await openSession();
-      await signIn(s, 'finance', '/downtime');
+      const s = await openSession(browser, { timezoneId: timeZone });
+      await signIn(s, base, 'finance', '/downtime');
       await heading(s.page, 'Downtime');
       const banner = s.page.getByRole('alert').filter({ hasText: 'These figures may be incomplete' });
       await banner.first().waitFor();
@@ -728,8 +671,8 @@ describe('what a new user meets on the pages: readable axes, a first paint, one 
     const latest = report.events.reduce((a, b) => (a.from > b.from ? a : b));
     const at = (zone: string) => new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short', timeZone: zone }).format(new Date(latest.from));
     expect(at(timeZone)).not.toBe(at('Asia/Tokyo'));
-    const s = await openSession(undefined, 'Asia/Tokyo');
-    await signIn(s, 'manager', '/downtime?from=2026-01-01&to=2026-07-01');
+    const s = await openSession(browser, { timezoneId: 'Asia/Tokyo' });
+    await signIn(s, base, 'manager', '/downtime?from=2026-01-01&to=2026-07-01');
     await heading(s.page, 'Downtime');
     const stops = s.page.getByRole('table', { name: /stops$/ });
     await expect.poll(async () => (await stops.innerText()).includes(at(timeZone)), { timeout: 20_000 }).toBe(true);

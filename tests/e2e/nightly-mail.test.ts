@@ -5,11 +5,9 @@ import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
 import type { Server } from 'node:http';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
+import type { Browser } from 'playwright-core';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Role } from '#shared/schemas/enums.ts';
 import type { NightlyRun } from '#shared/schemas/nightly.ts';
 import { createApp } from '#server/app.ts';
 import { secretKey } from '#server/auth/session.ts';
@@ -17,10 +15,9 @@ import { runNightly } from '#server/jobs/nightly.ts';
 import { startFakeSmtp, type FakeSmtp } from '#server/mail/fake-smtp.ts';
 import { createMailer } from '#server/mail/transport.ts';
 import { assetsCsv, historianCsv, tagsCsv, workOrdersCsv } from '../fixtures/ops-plant.ts';
-import { buildClient, launchChromium, listen, tearDown } from './harness.ts';
-import { createTestApp, rolePasswords, type TestApp } from '../setup/app.ts';
+import { buildClient, closeSession, launchChromium, listen, mainText, openSession, shot, shotsDir, signIn, tearDown } from './harness.ts';
+import { createTestApp, type TestApp } from '../setup/app.ts';
 
-const shotsDir = fileURLToPath(new URL('./screenshots', import.meta.url));
 
 let t: TestApp;
 let server: Server;
@@ -57,57 +54,11 @@ afterAll(async () => {
   await tearDown({ browser, server, t, dirs: [dist, inbox] });
 });
 
-interface Session {
-  context: BrowserContext;
-  page: Page;
-  problems: () => string[];
-}
-
-async function openSession(): Promise<Session> {
-  const context = await browser.newContext({ viewport: { width: 1280, height: 860 }, locale: 'en-GB', timezoneId: 'UTC' });
-  const page = await context.newPage();
-  const problems: string[] = [];
-  page.on('pageerror', (err) => problems.push(`page error: ${err.message}`));
-  page.on('console', (msg) => {
-    if (msg.type() !== 'error') return;
-    const url = msg.location().url ?? '';
-    if (/status of 401/.test(msg.text()) && url.endsWith('/api/auth/me')) return;
-    problems.push(`console error: ${msg.text()} (${url})`);
-  });
-  return { context, page, problems: () => [...problems] };
-}
-
-async function closeSession(s: Session) {
-  const problems = s.problems();
-  await s.context.close();
-  expect(problems).toEqual([]);
-}
-
-async function signIn(s: Session, role: Role, path: string) {
-  await s.page.goto(`${base}${path}`);
-  await s.page.waitForURL((url) => url.pathname === '/sign-in');
-  await s.page.getByLabel('E-mail').fill(`${role}@test.example`);
-  await s.page.getByLabel('Password').fill(rolePasswords[role]);
-  await s.page.getByRole('button', { name: 'Sign in' }).click();
-  await s.page.waitForURL((url) => url.pathname === path);
-}
-
-async function shot(page: Page, name: string) {
-  await page.mouse.move(0, 0);
-  await page.screenshot({ path: join(shotsDir, `${name}.png`), fullPage: true });
-}
-
-async function mainText(page: Page): Promise<string> {
-  const text = await page.getByRole('main').innerText();
-  for (const bad of ['NaN', 'undefined', 'Infinity', '[object Object]', 'null']) expect(text, `the page shows "${bad}"`).not.toContain(bad);
-  return text;
-}
-
 describe('the Nightly runs page', () => {
   it('lists the run with its outcome, and its details show each file, the steps and the digest figures', async () => {
     expect(run.outcome).toBe('partial');
-    const s = await openSession();
-    await signIn(s, 'admin', '/nightly');
+    const s = await openSession(browser);
+    await signIn(s, base, 'admin', '/nightly');
     await s.page.getByRole('heading', { level: 1, name: 'Nightly runs' }).waitFor();
     const row = s.page.getByRole('row').filter({ hasText: `run ${run.id}` });
     await row.waitFor();
@@ -136,14 +87,14 @@ describe('the Nightly runs page', () => {
   });
 
   it('is open to engineers and refused to managers', async () => {
-    const s = await openSession();
-    await signIn(s, 'engineer', '/nightly');
+    const s = await openSession(browser);
+    await signIn(s, base, 'engineer', '/nightly');
     await s.page.getByRole('row').filter({ hasText: `run ${run.id}` }).waitFor();
     await s.page.goto(`${base}/mail`);
     await s.page.getByRole('heading', { name: 'Your role does not allow this page' }).waitFor();
     await closeSession(s);
-    const m = await openSession();
-    await signIn(m, 'manager', '/nightly');
+    const m = await openSession(browser);
+    await signIn(m, base, 'manager', '/nightly');
     await m.page.getByRole('heading', { name: 'Your role does not allow this page' }).waitFor();
     await shot(m.page, 'nightly-refused-manager');
     await closeSession(m);
@@ -152,8 +103,8 @@ describe('the Nightly runs page', () => {
 
 describe('the Mail page', () => {
   it('lists the received mail and opens a digest with its HTML part in a sandboxed frame and its text part', async () => {
-    const s = await openSession();
-    await signIn(s, 'admin', '/mail');
+    const s = await openSession(browser);
+    await signIn(s, base, 'admin', '/mail');
     await s.page.getByRole('heading', { level: 1, name: 'Mail' }).waitFor();
     await s.page.getByText(/Mail goes to the development mail server/).waitFor();
     await s.page.getByText(/The outbox is empty/).waitFor();
@@ -187,8 +138,8 @@ describe('the Mail page', () => {
 
 describe('the digest subscription', () => {
   it('is a checkbox on the Settings page for oneself, and a column of the Users table for the admin', async () => {
-    const s = await openSession();
-    await signIn(s, 'engineer', '/settings');
+    const s = await openSession(browser);
+    await signIn(s, base, 'engineer', '/settings');
     const box = s.page.getByRole('checkbox', { name: 'Send me the nightly digest' });
     expect(await box.isChecked()).toBe(false);
     await box.check();
@@ -198,8 +149,8 @@ describe('the digest subscription', () => {
     await shot(s.page, 'settings-digest-engineer');
     await closeSession(s);
 
-    const a = await openSession();
-    await signIn(a, 'admin', '/users');
+    const a = await openSession(browser);
+    await signIn(a, base, 'admin', '/users');
     expect(await a.page.getByRole('checkbox', { name: 'Nightly digest for engineer@test.example' }).isChecked()).toBe(true);
     expect(await a.page.getByRole('checkbox', { name: 'Nightly digest for admin@test.example' }).isChecked()).toBe(false);
     await a.page.getByRole('checkbox', { name: 'Nightly digest for engineer@test.example' }).uncheck();

@@ -5,16 +5,14 @@
 import { mkdirSync, readdirSync } from 'node:fs';
 import type { Server } from 'node:http';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
+import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { roles, type Role } from '#shared/schemas/enums.ts';
 import { settingsDefaults } from '#shared/schemas/settings.ts';
 import { navigationFor, pages } from '#src/config/navigation.ts';
-import { buildClient, launchChromium, listen, tearDown } from './harness.ts';
+import { buildClient, closeSession, fillSignIn, heading, launchChromium, listen, openSession, shot, shotsDir, tearDown, type ExpectedFailure, type Session } from './harness.ts';
 import { createTestApp, rolePasswords, type TestApp } from '../setup/app.ts';
 
-const shotsDir = fileURLToPath(new URL('./screenshots', import.meta.url));
 
 // The role → page table as the product brief gives it, written out here independently of
 // src/config/navigation.ts so that a wrong entry there fails this test.
@@ -52,65 +50,9 @@ beforeAll(async () => {
 
 afterAll(() => tearDown({ browser, server, t, dirs: [dist] }));
 
-/** An HTTP refusal a step provokes on purpose (Chromium logs each as a console error). */
-interface ExpectedFailure {
-  status: number;
-  path: string | RegExp;
-}
-
-interface Session {
-  context: BrowserContext;
-  page: Page;
-  /** Console errors and page errors so far, except the expected failures. */
-  problems: () => string[];
-  /** Allows these HTTP refusals until the session closes. */
-  expectFailures: (...failures: ExpectedFailure[]) => void;
-}
-
-// Without a session, the client asks GET /api/auth/me and is answered 401 before it redirects.
-const anonymousMe: ExpectedFailure = { status: 401, path: '/api/auth/me' };
 // With no plant in the database, every KPI endpoint and the open work orders answer 404 site-not-found
 // (shown as "no plant data yet").
 const noPlant: ExpectedFailure = { status: 404, path: /^\/api\/(kpi|work-orders)\// };
-
-async function openSession(viewport = { width: 1280, height: 860 }): Promise<Session> {
-  const context = await browser.newContext({ viewport, locale: 'en-GB', timezoneId: 'UTC' });
-  const page = await context.newPage();
-  const problems: string[] = [];
-  const expected: ExpectedFailure[] = [anonymousMe, noPlant];
-  page.on('pageerror', (err) => problems.push(`page error: ${err.message}`));
-  page.on('console', (msg) => {
-    if (msg.type() !== 'error') return;
-    const status = /status of (\d{3})/.exec(msg.text())?.[1];
-    const url = msg.location().url ?? '';
-    const path = url ? new URL(url).pathname : '';
-    const allowed = expected.some(
-      (e) => String(e.status) === status && (typeof e.path === 'string' ? e.path === path : e.path.test(path)),
-    );
-    if (!allowed) problems.push(`console error: ${msg.text()} (${url})`);
-  });
-  return { context, page, problems: () => [...problems], expectFailures: (...f) => expected.push(...f) };
-}
-
-async function shot(page: Page, name: string) {
-  await page.screenshot({ path: join(shotsDir, `${name}.png`), fullPage: true });
-}
-
-async function closeSession(s: Session) {
-  const problems = s.problems();
-  await s.context.close();
-  expect(problems).toEqual([]);
-}
-
-async function heading(page: Page, name: string) {
-  await page.getByRole('heading', { level: 1, name, exact: true }).waitFor();
-}
-
-async function fillSignIn(page: Page, email: string, password: string) {
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(password);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-}
 
 /** Opens the app without a session, is sent to the sign-in form, and signs in there. */
 async function signIn(s: Session, role: Role, path = '/') {
@@ -160,7 +102,7 @@ describe('the built client in a browser', () => {
   });
 
   it('shows the sign-in form and the server’s message for a wrong password', async () => {
-    const s = await openSession();
+    const s = await openSession(browser, { expected: [noPlant] });
     s.expectFailures({ status: 401, path: '/api/auth/login' });
     await s.page.goto(`${base}/`);
     await s.page.waitForURL((url) => url.pathname === '/sign-in');
@@ -184,7 +126,7 @@ describe('the built client in a browser', () => {
 
   for (const role of roles) {
     it(`signs in as ${role} through the form and shows exactly that role's navigation`, async () => {
-      const s = await openSession();
+      const s = await openSession(browser, { expected: [noPlant] });
       await signIn(s, role);
       await heading(s.page, 'Dashboard');
       // Server health is for the people who run the server and its imports.
@@ -216,7 +158,7 @@ describe('the built client in a browser', () => {
   }
 
   it('sends a signed-out visitor to sign-in and back to the page asked for, and signs out', async () => {
-    const s = await openSession();
+    const s = await openSession(browser, { expected: [noPlant] });
     await signIn(s, 'manager', '/settings');
     await heading(s.page, 'Settings');
     expect(new URL(s.page.url()).pathname).toBe('/settings');
@@ -231,7 +173,7 @@ describe('the built client in a browser', () => {
   });
 
   it('sends someone whose session ended while the app was open to sign in, and back', async () => {
-    const s = await openSession();
+    const s = await openSession(browser, { expected: [noPlant] });
     s.expectFailures({ status: 401, path: '/api/imports' });
     await signIn(s, 'engineer');
     await heading(s.page, 'Dashboard');
@@ -248,7 +190,7 @@ describe('the built client in a browser', () => {
   });
 
   it('shows a not-found page inside the shell for an unknown address', async () => {
-    const s = await openSession();
+    const s = await openSession(browser, { expected: [noPlant] });
     await signIn(s, 'engineer', '/no-such-page');
     await s.page.getByText('There is no page at this address').waitFor();
     // Inside the shell: the navigation is still there to leave by.
@@ -259,7 +201,7 @@ describe('the built client in a browser', () => {
   });
 
   it('lets the admin add a user, change roles, disable and set a password, and shows the last-admin refusal', async () => {
-    const s = await openSession();
+    const s = await openSession(browser, { expected: [noPlant] });
     await signIn(s, 'admin', '/users');
     await heading(s.page, 'Users');
     const table = s.page.getByRole('table');
@@ -316,7 +258,7 @@ describe('the built client in a browser', () => {
     await closeSession(s);
 
     // The new user signs in with the new password and gets a manager's navigation.
-    const other = await openSession();
+    const other = await openSession(browser, { expected: [noPlant] });
     await other.page.goto(`${base}/`);
     await other.page.waitForURL((url) => url.pathname === '/sign-in');
     await fillSignIn(other.page, 'new.tech@test.example', 'changed-password-22');
@@ -326,7 +268,7 @@ describe('the built client in a browser', () => {
   });
 
   it('lets the admin change settings, refuses a bad value, and shows them read-only to others', async () => {
-    const s = await openSession();
+    const s = await openSession(browser, { expected: [noPlant] });
     await signIn(s, 'admin', '/settings');
     await heading(s.page, 'Settings');
     expect(await s.page.getByLabel('Water value').inputValue()).toBe(String(settingsDefaults.waterValuePerM3));
@@ -350,7 +292,7 @@ describe('the built client in a browser', () => {
     await s.page.getByText('USD per m³').first().waitFor();
     await closeSession(s);
 
-    const reader = await openSession();
+    const reader = await openSession(browser, { expected: [noPlant] });
     await signIn(reader, 'finance', '/settings');
     await heading(reader.page, 'Settings');
     await reader.page.getByText('Only an administrator can change these settings.').waitFor();
@@ -365,7 +307,7 @@ describe('the built client in a browser', () => {
   });
 
   it('fits a phone-sized screen: the navigation becomes a row under the top bar', async () => {
-    const s = await openSession({ width: 390, height: 844 });
+    const s = await openSession(browser, { viewport: { width: 390, height: 844 }, expected: [noPlant] });
     await signIn(s, 'admin');
     await heading(s.page, 'Dashboard');
     expect(await navLabels(s.page)).toEqual(Object.keys(briefTable));

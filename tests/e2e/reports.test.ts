@@ -6,19 +6,16 @@ import { mkdirSync } from 'node:fs';
 import { readFile } from 'node:fs/promises';
 import type { Server } from 'node:http';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
+import type { Browser } from 'playwright-core';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Role } from '#shared/schemas/enums.ts';
 import { maintenanceMixReportSchema } from '#shared/schemas/maintenance-mix.ts';
 import { writeReport } from '#server/reports/index.ts';
-import { buildClient, launchChromium, listen, tearDown } from './harness.ts';
-import { createTestApp, rolePasswords, type TestApp } from '../setup/app.ts';
+import { buildClient, closeSession, heading, launchChromium, listen, openSession, shot, shotsDir, signIn, tearDown } from './harness.ts';
+import { createTestApp, type TestApp } from '../setup/app.ts';
 import { numberOf, openWorkbook, rowStartingWith, sameCents } from '../setup/spreadsheet.ts';
 import { SITE, seedOpsPlant } from '../fixtures/ops-plant.ts';
 
-const shotsDir = fileURLToPath(new URL('./screenshots', import.meta.url));
 const window = 'from=2024-12-01&to=2025-02-01';
 
 let t: TestApp;
@@ -40,39 +37,11 @@ beforeAll(async () => {
 
 afterAll(() => tearDown({ browser, server, t, dirs: [dist] }));
 
-interface Session {
-  context: BrowserContext;
-  page: Page;
-  problems: () => string[];
-}
-
-async function openSession(): Promise<Session> {
-  const context = await browser.newContext({ viewport: { width: 1280, height: 900 }, locale: 'en-GB', timezoneId: 'UTC', acceptDownloads: true });
-  const page = await context.newPage();
-  const problems: string[] = [];
-  page.on('pageerror', (err) => problems.push(`page error: ${err.message}`));
-  page.on('console', (msg) => {
-    if (msg.type() !== 'error') return;
-    const url = msg.location().url ?? '';
-    if (/status of 401/.test(msg.text()) && url.endsWith('/api/auth/me')) return;
-    problems.push(`console error: ${msg.text()} (${url})`);
-  });
-  return { context, page, problems: () => [...problems] };
-}
-
-async function signIn(s: Session, role: Role, path: string) {
-  await s.page.goto(`${base}${path}`);
-  await s.page.waitForURL((url) => url.pathname === '/sign-in');
-  await s.page.getByLabel('E-mail').fill(`${role}@test.example`);
-  await s.page.getByLabel('Password').fill(rolePasswords[role]);
-  await s.page.getByRole('button', { name: 'Sign in' }).click();
-  await s.page.getByRole('heading', { level: 1, name: 'Reports', exact: true }).waitFor();
-}
-
 describe('the Reports page', () => {
   it('offers finance its workbooks, downloads the finance workbook and lists the stored ones', async () => {
-    const s = await openSession();
-    await signIn(s, 'finance', `/reports?${window}`);
+    const s = await openSession(browser, { viewport: { width: 1280, height: 900 }, acceptDownloads: true });
+    await signIn(s, base, 'finance', `/reports?${window}`);
+    await heading(s.page, 'Reports');
     const main = s.page.getByRole('main');
     await main.getByRole('button', { name: 'Download the finance workbook' }).waitFor();
     await main.getByRole('button', { name: 'Download the manager workbook' }).waitFor();
@@ -84,7 +53,7 @@ describe('the Reports page', () => {
     const storedRow = stored.getByRole('row').filter({ hasText: '2025-01-01 – 2025-01-11' });
     await storedRow.waitFor();
     expect(await storedRow.innerText()).toMatch(/2025-01-11\s+Manager\s+OPS/);
-    await s.page.screenshot({ path: join(shotsDir, 'reports-finance.png'), fullPage: true });
+    await shot(s.page, 'reports-finance');
 
     // The toast saying where it went shows for a few seconds: watch for it from the click on.
     const saved = s.page.getByRole('status').filter({ hasText: 'Saved as finance-OPS-2024-12-01-2025-02-01.xlsx.' });
@@ -93,7 +62,7 @@ describe('the Reports page', () => {
       saved.waitFor(),
       main.getByRole('button', { name: 'Download the finance workbook' }).click(),
     ]);
-    await s.page.screenshot({ path: join(shotsDir, 'reports-finance-downloaded.png'), fullPage: true });
+    await shot(s.page, 'reports-finance-downloaded');
     expect(download.suggestedFilename()).toBe('finance-OPS-2024-12-01-2025-02-01.xlsx');
     const path = join(dist, 'downloaded.xlsx');
     await download.saveAs(path);
@@ -111,28 +80,26 @@ describe('the Reports page', () => {
       stored.getByRole('button', { name: 'Download manager-OPS-2025-01-01-2025-01-11.xlsx of 2025-01-11' }).click(),
     ]);
     expect(storedDownload.suggestedFilename()).toBe('manager-OPS-2025-01-01-2025-01-11.xlsx');
-    const problems = s.problems();
-    await s.context.close();
-    expect(problems).toEqual([]);
+    await closeSession(s);
   });
 
   it('offers the manager and the engineer the workbooks of their roles', async () => {
-    const s = await openSession();
-    await signIn(s, 'manager', '/reports');
+    const s = await openSession(browser, { viewport: { width: 1280, height: 900 }, acceptDownloads: true });
+    await signIn(s, base, 'manager', '/reports');
+    await heading(s.page, 'Reports');
     const main = s.page.getByRole('main');
     await main.getByRole('button', { name: 'Download the manager workbook' }).waitFor();
     expect(await main.getByRole('button', { name: /Download the (finance|engineer) workbook/ }).count()).toBe(0);
     expect(await main.innerText()).toContain('Built now for the whole range of the site’s data');
-    await s.context.close();
+    await closeSession(s);
 
-    const e = await openSession();
-    await signIn(e, 'engineer', '/reports');
+    const e = await openSession(browser, { viewport: { width: 1280, height: 900 }, acceptDownloads: true });
+    await signIn(e, base, 'engineer', '/reports');
+    await heading(e.page, 'Reports');
     const em = e.page.getByRole('main');
     await em.getByRole('button', { name: 'Download the engineer workbook' }).waitFor();
     await em.getByRole('button', { name: 'Download the manager workbook' }).waitFor();
-    await e.page.screenshot({ path: join(shotsDir, 'reports-engineer.png'), fullPage: true });
-    const problems = e.problems();
-    await e.context.close();
-    expect(problems).toEqual([]);
+    await shot(e.page, 'reports-engineer');
+    await closeSession(e);
   });
 });
