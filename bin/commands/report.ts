@@ -29,7 +29,7 @@ export function registerReport(program: Command) {
     .option('--site <code>', 'site code (optional when only one site exists)')
     .option('--from <date>', 'first day, YYYY-MM-DD, midnight in the site’s zone (default: the first day of its data)')
     .option('--to <date>', 'day after the last, YYYY-MM-DD, not included (default: the day after its data ends)')
-    .option('--out <file>', 'file to write (default: reports/<name>-<site>-<from>-<to>.xlsx)')
+    .option('--out <file>', 'file to write (default: reports/<today>/<name>-<site>-<from>-<to>.xlsx, listed with the stored workbooks)')
     .option('--json', 'print {"path", "sheets": [{"name", "rows"}]}')
     .action(
       action(async (name: string, flags: ReportFlags) => {
@@ -44,7 +44,7 @@ export function registerReport(program: Command) {
             if (err instanceof HttpError) throw new CliError(err.message, err.code === 'invalid-window' ? 2 : 1);
             throw err;
           }
-          const result: ReportResult = await writePreparedReport(prepared, flags.out ?? join(reportsDir(), prepared.fileName));
+          const result: ReportResult = await writePreparedReport(prepared, flags.out ?? join(reportsDir(), prepared.builtDay, prepared.fileName));
           if (flags.json) stdio.out(formatJson(result));
           else {
             const rows = result.sheets.map((s) => `  ${s.name}: ${formatNumber(s.rows)} ${s.rows === 1 ? 'row' : 'rows'}`);

@@ -14,7 +14,7 @@ import { resolveSite } from '../services/scope.ts';
 import { getSettings } from '../services/settings.ts';
 import { Book } from './book.ts';
 import { workbookNamed, type WorkbookDefinition } from './catalog.ts';
-import { reportFileName, resolveReportWindow, type ReportWindow } from './window.ts';
+import { localDay, reportFileName, resolveReportWindow, type ReportWindow } from './window.ts';
 
 export type ReportSheets = { name: string; rows: number }[];
 
@@ -25,6 +25,8 @@ export interface PreparedReport {
   fileName: string;
   site: string;
   window: ReportWindow;
+  /** The day it is built, YYYY-MM-DD in the site's zone: the reports/<date>/ folder it is stored in. */
+  builtDay: string;
   write: (out: Writable) => Promise<ReportSheets>;
 }
 
@@ -67,6 +69,7 @@ export async function prepareReport(db: Db, raw: unknown, settings?: Settings): 
     name: request.name,
     fileName: reportFileName(request.name, site.code, window),
     site: site.code,
+    builtDay: localDay(generatedAt, site.timeZone),
     window,
     write: (out) => writeWorkbook(definition, content, out, site.timeZone, generatedAt),
   };

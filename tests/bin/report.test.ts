@@ -3,9 +3,10 @@
 import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import { readFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { join, relative, sep } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { reportResultSchema } from '#shared/schemas/reports.ts';
+import { listStoredReports } from '#server/reports/stored.ts';
 import { createTestDatabase, type TestDatabase } from '../setup/db.ts';
 import { runCli } from '../setup/cli.ts';
 import { openWorkbook } from '../setup/spreadsheet.ts';
@@ -30,12 +31,16 @@ afterAll(async () => {
 });
 
 describe('osmia report', () => {
-  it('report finance --json writes the workbook under its name and prints its path and sheets', async () => {
+  it('report finance --json writes the workbook under its name in reports/<today>/, prints its path and sheets, and it is listed as stored', async () => {
     const r = runCli(d.url, ['report', 'finance', '--site', SITE, '--from', '2024-12-01', '--to', '2025-02-01', '--json']);
     expect(r.code, r.err).toBe(0);
     const result = reportResultSchema.parse(JSON.parse(r.out));
-    expect(result.path).toBe(join(dir, 'finance-OPS-2024-12-01-2025-02-01.xlsx'));
+    const [day, file] = relative(dir, result.path).split(sep);
+    expect(day).toMatch(/^\d{4}-\d{2}-\d{2}$/);
+    expect(file).toBe('finance-OPS-2024-12-01-2025-02-01.xlsx');
     expect(existsSync(result.path)).toBe(true);
+    // The Reports page and GET /api/reports list it beside the nightly run's workbooks.
+    expect((await listStoredReports(dir, 'finance')).map((r) => `${r.date}/${r.file}`)).toContain(`${day}/${file}`);
     const wb = await openWorkbook(await readFile(result.path));
     expect(result.sheets).toEqual(wb.worksheets.map((w) => ({ name: w.name, rows: w.rowCount })));
     expect(result.sheets.map((s) => s.name)).toEqual(['Cover', 'Summary', 'Maintenance cost', 'Downtime cost', 'Element replacements', 'Replacement budget']);

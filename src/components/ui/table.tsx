@@ -98,7 +98,8 @@ export function Table<T>({ caption, hideCaption = false, columns, rows, rowKey, 
                     <button
                       type="button"
                       onClick={() => toggle(c.id)}
-                      className={cn('-mx-1 inline-flex items-center gap-1.5 rounded px-1 hover:text-tide-700', c.align === 'right' && 'flex-row-reverse')}
+                      // A block-level flex box in every sortable header, so left and right headers sit on one line.
+                      className={cn('-mx-1 flex w-fit items-center gap-1.5 rounded px-1 hover:text-tide-700', c.align === 'right' && 'ml-auto flex-row-reverse')}
                     >
                       {c.header}
                       <SortIcon direction={direction} />

@@ -122,7 +122,7 @@ export function ReportsPanel({ window }: { window: KpiWindow }) {
           </ul>
         )}
       </Card>
-      <Card title="Stored workbooks" description="Copies the nightly run wrote into the reports folder, one folder per day, newest first.">
+      <Card title="Stored workbooks" description="Workbooks written into the reports folder by the nightly run or by osmia report, one folder per day, newest first.">
         <Table
           caption={`Stored workbooks: ${stored.length}`}
           hideCaption
