@@ -130,3 +130,16 @@ export function formatHoursOrMinutes(hours: number | null | undefined): string {
   if (hours === null || hours === undefined || !Number.isFinite(hours)) return '—';
   return Math.abs(hours) < 1 ? withUnit(hours * 60, 'min', 0) : formatHours(hours, 2);
 }
+
+/** A byte count in the units a person reads, decimal (SI) prefixes: 950 B, 24.1 kB, 3.2 MB. */
+export function formatBytes(bytes: number): string {
+  if (!Number.isFinite(bytes) || bytes < 0) return '—';
+  const units = ['B', 'kB', 'MB', 'GB'];
+  let value = bytes;
+  let unit = 0;
+  while (value >= 1000 && unit < units.length - 1) {
+    value /= 1000;
+    unit++;
+  }
+  return `${new Intl.NumberFormat(undefined, { maximumFractionDigits: unit === 0 ? 0 : 1 }).format(value)} ${units[unit]}`;
+}

@@ -1,7 +1,7 @@
 // Display formatting of the pages (src/lib/format.ts): dates in the plant's zone once it is set, numbers
 // with their units, "—" for what is missing. Expected strings come from Intl itself with the same options.
 import { afterEach, describe, expect, it } from 'vitest';
-import { formatDate, formatDateTime, formatHours, formatMoney, setDisplayTimeZone } from '#src/lib/format.ts';
+import { formatBytes, formatDate, formatDateTime, formatHours, formatMoney, setDisplayTimeZone } from '#src/lib/format.ts';
 
 afterEach(() => setDisplayTimeZone(undefined));
 
@@ -33,5 +33,17 @@ describe('numbers with units', () => {
     expect(formatHours(259.24)).toBe(`${new Intl.NumberFormat(undefined, { maximumFractionDigits: 1 }).format(259.2)} h`);
     expect(formatHours(null)).toBe('—');
     expect(formatMoney(null, 'EUR')).toBe('—');
+  });
+});
+
+describe('sizes', () => {
+  it('writes bytes with decimal SI prefixes (1 kB = 1000 B, SI Brochure 9th ed. §3), one decimal above bytes', () => {
+    const one = (n: number) => new Intl.NumberFormat(undefined, { maximumFractionDigits: 1 }).format(n);
+    expect(formatBytes(950)).toBe('950 B');
+    expect(formatBytes(18_500)).toBe(`${one(18.5)} kB`);
+    expect(formatBytes(3_210_000)).toBe(`${one(3.2)} MB`);
+    expect(formatBytes(999_999)).toBe(`${one(1000)} kB`);
+    expect(formatBytes(-1)).toBe('—');
+    expect(formatBytes(Number.NaN)).toBe('—');
   });
 });

@@ -4,9 +4,9 @@ import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { ErrorBoundary } from '../../../components/ui/error-boundary.tsx';
 import { Table, type Column } from '../../../components/ui/table.tsx';
-import { formatDateTime, formatNumber } from '../../../lib/format.ts';
+import { formatBytes, formatDateTime, formatNumber } from '../../../lib/format.ts';
 import { useImport, useImports, type ImportHistoryItem } from '../api/get-imports.ts';
-import { formatBytes, formatImportDuration, kindShortLabels, statusLabels, statusTones } from '../utils/labels.ts';
+import { formatImportDuration, kindShortLabels, statusLabels, statusTones } from '../utils/labels.ts';
 import { ImportRecordView } from './import-record-view.tsx';
 
 function Progress({ item }: { item: ImportHistoryItem }) {

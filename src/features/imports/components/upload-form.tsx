@@ -10,8 +10,9 @@ import { Select } from '../../../components/ui/select.tsx';
 import { TextArea } from '../../../components/ui/textarea.tsx';
 import { getErrorMessage, isApiError } from '../../../lib/api-client.ts';
 import { cn } from '../../../lib/cn.ts';
+import { formatBytes } from '../../../lib/format.ts';
 import { useUploadImport } from '../api/upload-import.ts';
-import { columnsHint, formatBytes, kindLabels } from '../utils/labels.ts';
+import { columnsHint, kindLabels } from '../utils/labels.ts';
 
 const timeZones: readonly string[] = typeof Intl.supportedValuesOf === 'function' ? Intl.supportedValuesOf('timeZone') : [];
 

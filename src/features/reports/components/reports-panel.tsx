@@ -6,11 +6,11 @@ import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { Table, type Column } from '../../../components/ui/table.tsx';
 import { showToast } from '../../../components/ui/toast.tsx';
 import { getErrorMessage } from '../../../lib/api-client.ts';
-import { formatDateTime } from '../../../lib/format.ts';
+import { formatBytes, formatDateTime } from '../../../lib/format.ts';
 import { toSearch, type KpiWindow } from '../../../lib/kpi-window.ts';
 import { useDownloadWorkbook } from '../api/download-workbook.ts';
 import { useReports } from '../api/get-reports.ts';
-import { formatSize, readerOf } from '../utils/labels.ts';
+import { readerOf } from '../utils/labels.ts';
 
 function DownloadIcon() {
   return (
@@ -92,7 +92,7 @@ const storedColumns: Column<StoredReport>[] = [
       </span>
     ),
   },
-  { id: 'size', header: 'Size', align: 'right', sortValue: (r) => r.bytes, cell: (r) => <span className="whitespace-nowrap tabular-nums">{formatSize(r.bytes)}</span> },
+  { id: 'size', header: 'Size', align: 'right', sortValue: (r) => r.bytes, cell: (r) => <span className="whitespace-nowrap tabular-nums">{formatBytes(r.bytes)}</span> },
   { id: 'modified', header: 'Modified', sortValue: (r) => r.modifiedAt, cell: (r) => <span className="whitespace-nowrap">{formatDateTime(r.modifiedAt)}</span> },
   { id: 'download', header: 'Download', align: 'right', cell: (r) => <StoredDownload report={r} /> },
 ];
