@@ -1,29 +1,17 @@
 // Which importer a file is for, read from its header alone: the canonical headers of docs/design.md §5
 // (shared/schemas/imports.ts). Used by the nightly run, whose inbox holds files of every kind.
 import { createReadStream } from 'node:fs';
-import { open } from 'node:fs/promises';
 import type ExcelJS from 'exceljs';
 import Papa from 'papaparse';
 import type { ImportKind } from '#shared/schemas/enums.ts';
 import { importColumns, optionalColumns } from '#shared/schemas/imports.ts';
 import { applyColumnMap, type ColumnMap } from './column-map.ts';
-import { detectDelimiter } from './source.ts';
+import { detectDelimiter, peek } from './source.ts';
 
 export type DetectedKind = { kind: ImportKind; format: 'csv' | 'xlsx' } | { kind: null; reason: string };
 
 /** The kinds a header can be read as, without the historian (told by its first column). */
 const registerKinds = (Object.keys(importColumns) as ImportKind[]).filter((k) => k !== 'historian');
-
-async function head(path: string, bytes: number): Promise<Buffer> {
-  const fh = await open(path, 'r');
-  try {
-    const buf = Buffer.alloc(bytes);
-    const { bytesRead } = await fh.read(buf, 0, bytes, 0);
-    return buf.subarray(0, bytesRead);
-  } finally {
-    await fh.close();
-  }
-}
 
 /** The first row of an XLSX workbook's first sheet; the file is closed as soon as it is read. */
 async function xlsxHeader(path: string): Promise<string[]> {
@@ -52,7 +40,7 @@ async function xlsxHeader(path: string): Promise<string[]> {
 export async function detectKind(path: string, columnMap?: ColumnMap): Promise<DetectedKind> {
   let start: Buffer;
   try {
-    start = await head(path, 64 * 1024);
+    start = await peek(path, 64 * 1024);
   } catch (err) {
     return { kind: null, reason: `The file could not be read: ${(err as Error).message}` };
   }

@@ -54,7 +54,8 @@ async function lineBreaksBefore(path: string, end: number): Promise<number> {
   return n;
 }
 
-async function peek(path: string, bytes: number): Promise<Buffer> {
+/** The first `bytes` bytes of a file (fewer when it is shorter); the file is closed at once. */
+export async function peek(path: string, bytes: number): Promise<Buffer> {
   const fh = await open(path, 'r');
   try {
     const buf = Buffer.alloc(bytes);
